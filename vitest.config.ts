@@ -11,6 +11,7 @@ export default defineConfig({
       '@kinespec/signal': src('./packages/signal/src/index.ts'),
       '@kinespec/kinematics': src('./packages/kinematics/src/index.ts'),
       '@kinespec/signatures': src('./packages/signatures/src/index.ts'),
+      '@kinespec/simulator': src('./packages/simulator/src/index.ts'),
       '@kinespec/diagnosis': src('./packages/diagnosis/src/index.ts'),
       '@kinespec/api': src('./services/api/src/index.ts'),
     },
