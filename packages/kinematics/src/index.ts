@@ -2,3 +2,6 @@
 // the component frequency catalogue. Other packages import only from here.
 export * from './machine-model.js';
 export * from './problem.js';
+export * from './validator.js';
+export * from './loader.js';
+export * from './shaft-speeds.js';
