@@ -1,0 +1,42 @@
+import { SignalInputError } from '../errors.js';
+
+export interface PlotSeries {
+  frequenciesHz: Float64Array;
+  values: Float64Array;
+}
+
+/**
+ * At most maxPoints (frequency, value) pairs for drawing: the bins are split into maxPoints/2
+ * equal buckets and each bucket keeps its minimum and its maximum, in frequency order, so no peak
+ * (and no notch) disappears from the plot. Short spectra come back unchanged (copied).
+ */
+export function downsampleForPlot(spectrum: PlotSeries, maxPoints: number): PlotSeries {
+  if (!(Number.isInteger(maxPoints) && maxPoints >= 2)) {
+    throw new SignalInputError('invalid_max_points', `maxPoints (${maxPoints}) must be an integer >= 2`);
+  }
+  const { frequenciesHz: f, values: v } = spectrum;
+  const n = v.length;
+  if (n <= maxPoints) return { frequenciesHz: f.slice(), values: v.slice() };
+  const buckets = Math.floor(maxPoints / 2);
+  const outF: number[] = [];
+  const outV: number[] = [];
+  for (let b = 0; b < buckets; b++) {
+    const start = Math.floor((b * n) / buckets);
+    const end = Math.floor(((b + 1) * n) / buckets);
+    let iMin = start;
+    let iMax = start;
+    for (let i = start + 1; i < end; i++) {
+      if (v[i] < v[iMin]) iMin = i;
+      if (v[i] > v[iMax]) iMax = i;
+    }
+    const first = Math.min(iMin, iMax);
+    const second = Math.max(iMin, iMax);
+    outF.push(f[first]);
+    outV.push(v[first]);
+    if (second !== first) {
+      outF.push(f[second]);
+      outV.push(v[second]);
+    }
+  }
+  return { frequenciesHz: Float64Array.from(outF), values: Float64Array.from(outV) };
+}
