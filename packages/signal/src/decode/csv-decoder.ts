@@ -1,0 +1,565 @@
+import type { Recording } from '../recording.js';
+import { DecimalScanner } from './decimal-scanner.js';
+import { decodeError } from './decode-error.js';
+import { checkRecordingSize, resolveDecodeLimits, type DecodeLimits } from './decode-limits.js';
+import { addWarning, channelNames, checkSampleRate } from './recording-parts.js';
+import { inputText } from './text-input.js';
+
+export interface CsvDecodeOptions {
+  /** Cell separator; detected from the first line when absent (tab, else semicolon, else comma). */
+  separator?: ',' | ';' | '\t';
+  /** Whether the first line is a header; detected when absent (a header has no numeric cell). */
+  header?: boolean;
+  /** Time column by header name or 0-based index; `false` for none. Detected from header names when absent. */
+  timeColumn?: string | number | false;
+  /** Sample rate; overrides the time column and `# sampleRateHz=` comments. */
+  sampleRateHz?: number;
+  /** Unit of every data channel; overrides units in the header and in comments. */
+  unit?: string;
+  channelNames?: readonly string[];
+  limits?: Partial<DecodeLimits>;
+}
+
+/** Relative part of the allowed deviation of one time step from the mean step. */
+export const csvTimeStepTolerance = 0.005;
+
+const LF = 10;
+const CR = 13;
+const SPACE = 32;
+const TAB = 9;
+const QUOTE = 34;
+const HASH = 35;
+
+const secondsPerTimeUnit: Record<string, number> = { s: 1, sec: 1, ms: 1e-3, us: 1e-6, 'µs': 1e-6 };
+const timeNames: Array<[RegExp, number]> = [
+  [/^(t|time|times|time_?s|time_?sec|seconds?|secs?|elapsed|elapsed_?s)$/i, 1],
+  [/^(time_?ms|ms|milliseconds?)$/i, 1e-3],
+  [/^(time_?us|us|µs|microseconds?)$/i, 1e-6],
+];
+const nonFiniteWord = /^[+-]?(nan|inf|infinity)$/i;
+
+interface HeaderCell {
+  name: string;
+  unit?: string;
+}
+
+/** "accel [g]" or "accel (g)" gives name and unit. */
+function headerCell(text: string): HeaderCell {
+  const m = /^(.*?)\s*[[(]\s*([^\])]*?)\s*[\])]$/.exec(text);
+  return m && m[1] !== '' ? { name: m[1], unit: m[2] || undefined } : { name: text };
+}
+
+function unquote(cell: string): string {
+  const t = cell.trim();
+  return t.length >= 2 && t.charCodeAt(0) === QUOTE && t.charCodeAt(t.length - 1) === QUOTE
+    ? t.slice(1, -1).replace(/""/g, '"').trim()
+    : t;
+}
+
+/** Splits one line into cells, keeping separators inside double quotes. */
+function splitCells(line: string, separator: number): string[] {
+  if (separator < 0) return [unquote(line)];
+  const cells: string[] = [];
+  let start = 0;
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const c = line.charCodeAt(i);
+    if (c === QUOTE) quoted = !quoted;
+    else if (c === separator && !quoted) {
+      cells.push(unquote(line.slice(start, i)));
+      start = i + 1;
+    }
+  }
+  cells.push(unquote(line.slice(start)));
+  return cells;
+}
+
+function lineEnd(text: string, pos: number): number {
+  const lf = text.indexOf('\n', pos);
+  const end = lf < 0 ? text.length : lf;
+  const cr = text.indexOf('\r', pos);
+  return cr >= 0 && cr < end ? cr : end;
+}
+
+/** Position after the line break that starts at `end` (CRLF, LF or a lone CR). */
+function afterBreak(text: string, end: number): number {
+  if (text.charCodeAt(end) === CR) return text.charCodeAt(end + 1) === LF ? end + 2 : end + 1;
+  return end + 1;
+}
+
+function isBlank(line: string): boolean {
+  return line.trim() === '';
+}
+
+function detectSeparator(line: string): number {
+  let tabs = 0;
+  let semicolons = 0;
+  let commas = 0;
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const c = line.charCodeAt(i);
+    if (c === QUOTE) quoted = !quoted;
+    else if (!quoted) {
+      if (c === TAB) tabs++;
+      else if (c === 59) semicolons++;
+      else if (c === 44) commas++;
+    }
+  }
+  // A semicolon or tab file may use commas inside cells (decimal commas, names); a comma file has neither.
+  return tabs > 0 ? TAB : semicolons > 0 ? 59 : commas > 0 ? 44 : -1;
+}
+
+interface Comments {
+  metadata: Record<string, string>;
+  sampleRateHz?: { value: number; line: number };
+  units?: string[];
+  names?: string[];
+}
+
+function listValue(value: string): string[] {
+  return value
+    .split(/[,;\t]/)
+    .map((s) => s.trim())
+    .filter((s) => s !== '');
+}
+
+function readComment(body: string, line: number, comments: Comments): void {
+  const eq = body.indexOf('=');
+  if (eq <= 0) {
+    const text = body.trim();
+    if (text !== '') comments.metadata.comment = comments.metadata.comment ? `${comments.metadata.comment}\n${text}` : text;
+    return;
+  }
+  const key = body.slice(0, eq).trim();
+  const value = body.slice(eq + 1).trim();
+  comments.metadata[key] = value;
+  const normal = key.toLowerCase().replace(/[^a-z0-9]/g, '');
+  if (normal === 'sampleratehz' || normal === 'samplerate' || normal === 'fs' || normal === 'fshz') {
+    const rate = value === '' ? NaN : Number(value);
+    checkSampleRate(rate, `The '# ${key}=' comment on line ${line}`, `line ${line}`);
+    comments.sampleRateHz = { value: rate, line };
+  } else if (normal === 'unit' || normal === 'units') {
+    comments.units = listValue(value);
+  } else if (normal === 'channels' || normal === 'channelnames' || normal === 'names') {
+    comments.names = listValue(value);
+  }
+}
+
+/**
+ * Decodes delimited text: one numeric column per channel, an optional header row (names, and units in
+ * brackets: `accel_x [g]`), an optional time column in s, ms or us (detected by name: t, time, time_s,
+ * seconds, time_ms, ...) from which the sample rate is derived, and `# key=value` comment lines that
+ * become metadata (`# sampleRateHz=25600`, `# unit=g`, `# channels=DE-H,DE-V`). Numbers use a decimal
+ * point; the separator is a comma, semicolon or tab.
+ *
+ * Time steps may differ from the mean step by 0.5 % of it plus the resolution the two times were written
+ * with (half a unit of each one's last digit); anything more is `csv_uneven_time`, naming the line. The
+ * derived rate snaps to a whole number of hertz when that lies within the timing resolution.
+ */
+export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions = {}): Recording {
+  if (typeof input !== 'string' && !(input instanceof Uint8Array)) {
+    throw decodeError('option_invalid', 'decodeCsv expects the file as a string or a Uint8Array.');
+  }
+  const limits = resolveDecodeLimits(options.limits);
+  const text = inputText(input);
+  const length = text.length;
+  const comments: Comments = { metadata: {} };
+
+  // Leading comment and blank lines, then the first content line (header or data).
+  let pos = 0;
+  let line = 1;
+  let first: string | undefined;
+  let separator = -1;
+  let separatorGiven = false;
+  if (options.separator !== undefined) {
+    if (options.separator !== ',' && options.separator !== ';' && options.separator !== '\t') {
+      throw decodeError('option_invalid', `separator (${JSON.stringify(options.separator)}) must be ',', ';' or a tab.`);
+    }
+    separator = options.separator.charCodeAt(0);
+    separatorGiven = true;
+  }
+  while (pos < length) {
+    const end = lineEnd(text, pos);
+    const content = text.slice(pos, end);
+    const trimmed = content.trimStart();
+    if (trimmed.charCodeAt(0) === HASH) {
+      readComment(trimmed.slice(1), line, comments);
+    } else if (/^sep=.$/.test(content.trim()) && first === undefined && !separatorGiven) {
+      // Spreadsheet exports may name their separator on a first line of its own.
+      separator = content.trim().charCodeAt(4);
+      separatorGiven = true;
+    } else if (!isBlank(content)) {
+      first = content;
+      break;
+    }
+    pos = afterBreak(text, end);
+    line++;
+  }
+  if (first === undefined) {
+    throw decodeError(
+      'empty_input',
+      length === 0 || isBlank(text) ? 'The CSV file is empty.' : 'The CSV file holds only comment lines and no data.',
+    );
+  }
+  const firstLine = line;
+  if (!separatorGiven) separator = detectSeparator(first);
+  let firstCells = splitCells(first, separator);
+  // A line that ends with a separator gives an empty last cell; tolerate it if the first line does it too.
+  const trailingSeparator = firstCells.length > 1 && firstCells[firstCells.length - 1] === '';
+  if (trailingSeparator) firstCells = firstCells.slice(0, -1);
+  const columnCount = firstCells.length;
+  const scanner = new DecimalScanner();
+  const isNumber = (cell: string) => nonFiniteWord.test(cell) || fullNumber(scanner, cell);
+  const header = options.header ?? firstCells.every((cell) => !isNumber(cell));
+  const headerCells = header ? firstCells.map(headerCell) : undefined;
+  let dataStart = pos;
+  let dataLine = firstLine;
+  if (header) {
+    dataStart = afterBreak(text, lineEnd(text, pos));
+    dataLine = firstLine + 1;
+  }
+
+  const timeColumn = resolveTimeColumn(options.timeColumn, headerCells, columnCount);
+  const dataColumns = columnCount - (timeColumn ? 1 : 0);
+  checkRecordingSize(dataColumns, 0, limits, `line ${firstLine}`);
+
+  // Upper bound on the rows: one per line break left. Buffers are sized once, before parsing.
+  let breaks = 0;
+  for (let i = text.indexOf('\n', dataStart); i >= 0; i = text.indexOf('\n', i + 1)) breaks++;
+  if (breaks === 0) for (let i = text.indexOf('\r', dataStart); i >= 0; i = text.indexOf('\r', i + 1)) breaks++;
+  const rowBound = breaks + 1;
+  const capacity = Math.min(
+    rowBound,
+    limits.maxSamplesPerChannel,
+    Math.floor(limits.maxTotalSamples / Math.max(1, dataColumns)),
+  );
+  const columns = Array.from({ length: columnCount }, () => new Float64Array(capacity));
+  const timeIndex = timeColumn ? timeColumn.index : -1;
+  // Per row, the decimal exponent of the time cell's last digit: the resolution each time was written with.
+  const timeDigitExponents = new Int16Array(timeColumn ? capacity : 0);
+
+  const where = (l: number, col: number) => `line ${l}, column ${col + 1}`;
+  const columnLabel = (col: number) => (headerCells ? ` ('${headerCells[col].name}')` : '');
+  const countError = (l: number, cells: number): never => {
+    throw decodeError(
+      'csv_column_count',
+      `Line ${l} has ${cells} cell${cells === 1 ? '' : 's'} but line ${firstLine}${header ? ' (the header)' : ''} has ${columnCount}; every line needs the same columns.`,
+      `line ${l}`,
+    );
+  };
+  const cellsOnLine = (start: number) => {
+    const end = lineEnd(text, start);
+    const cells = splitCells(text.slice(start, end), separator);
+    return trailingSeparator && cells.length > 1 && cells[cells.length - 1] === '' ? cells.length - 1 : cells.length;
+  };
+
+  /** Slow path for a cell the fast path did not take: quotes, words, bad characters. Returns its end. */
+  const slowCell = (start: number, l: number, col: number, lineStart: number): [number, number] => {
+    let end = start;
+    let quoted = false;
+    for (; end < length; end++) {
+      const c = text.charCodeAt(end);
+      if (c === QUOTE) quoted = !quoted;
+      else if (!quoted && (c === separator || c === LF || c === CR)) break;
+    }
+    const cell = unquote(text.slice(start, end));
+    if (cell === '') {
+      if (col === 0 && (end >= length || text.charCodeAt(end) === LF || text.charCodeAt(end) === CR) && columnCount > 1) {
+        countError(l, cellsOnLine(lineStart));
+      }
+      throw decodeError(
+        'csv_non_numeric',
+        `Line ${l}, column ${col + 1}${columnLabel(col)} is empty; every cell needs a number (a gap in the recording cannot be filled in).`,
+        where(l, col),
+      );
+    }
+    if (nonFiniteWord.test(cell)) {
+      throw decodeError(
+        'non_finite_sample',
+        `Line ${l}, column ${col + 1}${columnLabel(col)} holds '${cell}'; a recording must hold finite numbers only.`,
+        where(l, col),
+      );
+    }
+    if (fullNumber(scanner, cell)) return [scanner.scan(cell, 0, cell.length), end];
+    const hint =
+      separator !== 44 && /^[+-]?\d*,\d+([eE][+-]?\d+)?$/.test(cell)
+        ? ' It looks like a decimal comma: write numbers with a decimal point (1.25, not 1,25).'
+        : '';
+    throw decodeError(
+      'csv_non_numeric',
+      `Line ${l}, column ${col + 1}${columnLabel(col)} holds '${cell.length > 40 ? `${cell.slice(0, 40)}...` : cell}', which is not a number.${hint}`,
+      where(l, col),
+    );
+  };
+
+  let row = 0;
+  pos = dataStart;
+  line = dataLine;
+  while (pos < length) {
+    const lineStart = pos;
+    let c = text.charCodeAt(pos);
+    while (c === SPACE || (c === TAB && separator !== TAB)) c = text.charCodeAt(++pos);
+    if (c === HASH) {
+      const end = lineEnd(text, pos);
+      readComment(text.slice(pos + 1, end), line, comments);
+      pos = afterBreak(text, end);
+      line++;
+      continue;
+    }
+    if (c === LF || c === CR || pos >= length) {
+      // Blank line.
+      pos = afterBreak(text, pos);
+      line++;
+      continue;
+    }
+    if (row === capacity) {
+      // Capacity is below the line-break bound only when a size limit caps it.
+      checkRecordingSize(dataColumns, row + 1, limits, `line ${line}`);
+    }
+    for (let col = 0; col < columnCount; col++) {
+      while (c === SPACE || (c === TAB && separator !== TAB)) c = text.charCodeAt(++pos);
+      let value = scanner.scan(text, pos, length);
+      let end = scanner.end;
+      if (end !== pos) {
+        c = text.charCodeAt(end);
+        while (c === SPACE || (c === TAB && separator !== TAB)) c = text.charCodeAt(++end);
+      }
+      if (end === pos || !(c === separator || c === LF || c === CR || end >= length)) {
+        [value, end] = slowCell(pos, line, col, lineStart);
+        c = text.charCodeAt(end);
+      }
+      if (value - value !== 0) {
+        throw decodeError(
+          'non_finite_sample',
+          `Line ${line}, column ${col + 1}${columnLabel(col)} holds ${text.slice(pos, end).trim()}, which is out of the range of a double; a recording must hold finite numbers only.`,
+          where(line, col),
+        );
+      }
+      if (col === timeIndex) timeDigitExponents[row] = scanner.lastDigitExponent;
+      columns[col][row] = value;
+      if (col < columnCount - 1) {
+        if (c !== separator) countError(line, cellsOnLine(lineStart));
+        pos = end + 1;
+        c = text.charCodeAt(pos);
+      } else {
+        if (c === separator) {
+          let after = end + 1;
+          let d = text.charCodeAt(after);
+          while (d === SPACE || (d === TAB && separator !== TAB)) d = text.charCodeAt(++after);
+          if (!trailingSeparator || !(d === LF || d === CR || after >= length)) countError(line, cellsOnLine(lineStart));
+          end = after;
+        }
+        pos = end >= length ? length : afterBreak(text, end);
+      }
+    }
+    row++;
+    line++;
+  }
+
+  if (row === 0) {
+    throw decodeError('no_samples', `The CSV file has ${header ? 'a header but ' : ''}no data lines.`, `line ${dataLine}`);
+  }
+  if (dataColumns === 0) {
+    throw decodeError('no_samples', 'The CSV file has a time column but no data column.', `line ${firstLine}`);
+  }
+  checkRecordingSize(dataColumns, row, limits);
+
+  const metadata: Record<string, string> = { ...comments.metadata };
+  let timeRate: number | undefined;
+  if (timeColumn) {
+    timeRate = timeColumnRate(
+      columns[timeColumn.index].subarray(0, row),
+      timeDigitExponents,
+      timeColumn,
+      (r) => lineOfRow(text, dataStart, dataLine, r),
+    );
+    metadata.timeColumn = timeColumn.name;
+  }
+  const sampleRateHz = chooseSampleRate(options.sampleRateHz, timeRate, comments.sampleRateHz, metadata);
+
+  const dataIndices = Array.from({ length: columnCount }, (_, i) => i).filter((i) => i !== timeIndex);
+  const fileNames = headerCells ? dataIndices.map((i) => headerCells[i].name) : comments.names;
+  if (!headerCells && comments.names && comments.names.length !== dataIndices.length) {
+    addWarning(metadata, `the channels comment names ${comments.names.length} channels but the file has ${dataIndices.length}; names ch1.. were used`);
+  }
+  const names = channelNames(dataIndices.length, options.channelNames, fileNames);
+  const units = dataIndices.map((i, k) => {
+    const fromFile =
+      headerCells?.[i].unit ??
+      (comments.units?.length === 1
+        ? comments.units[0]
+        : comments.units?.length === dataIndices.length
+          ? comments.units[k]
+          : undefined);
+    if (options.unit === undefined) return fromFile ?? 'unknown';
+    if (fromFile !== undefined && fromFile !== options.unit) {
+      addWarning(metadata, `column '${names[k]}' says unit '${fromFile}' but '${options.unit}' was used`);
+    }
+    return options.unit;
+  });
+  if (comments.units && comments.units.length !== 1 && comments.units.length !== dataIndices.length) {
+    addWarning(metadata, `the unit comment lists ${comments.units.length} units for ${dataIndices.length} channels and was not applied`);
+  }
+  metadata.sourceFormat = 'csv';
+  return {
+    sampleRateHz,
+    channels: dataIndices.map((i, k) => ({
+      name: names[k],
+      unit: units[k],
+      // A view wastes only the rows taken by comment and blank lines; a large waste is worth one copy.
+      samples: capacity - row <= capacity / 16 ? columns[i].subarray(0, row) : columns[i].slice(0, row),
+    })),
+    metadata,
+  };
+}
+
+/** True when the whole cell is one decimal number. */
+function fullNumber(scanner: DecimalScanner, cell: string): boolean {
+  if (cell === '') return false;
+  scanner.scan(cell, 0, cell.length);
+  return scanner.end === cell.length;
+}
+
+interface TimeColumn {
+  index: number;
+  name: string;
+  secondsPerUnit: number;
+}
+
+function resolveTimeColumn(
+  option: string | number | false | undefined,
+  header: HeaderCell[] | undefined,
+  columnCount: number,
+): TimeColumn | undefined {
+  if (option === false) return undefined;
+  const scaleOf = (cell: HeaderCell | undefined, index: number): TimeColumn => {
+    if (!cell) return { index, name: `column ${index + 1}`, secondsPerUnit: 1 };
+    const byName = timeNames.find(([re]) => re.test(cell.name));
+    if (cell.unit !== undefined) {
+      const perUnit = secondsPerTimeUnit[cell.unit.toLowerCase()];
+      if (perUnit === undefined) {
+        throw decodeError(
+          'csv_time_invalid',
+          `The time column '${cell.name} [${cell.unit}]' has unit '${cell.unit}'; write times in s, ms or us.`,
+          `column ${index + 1}`,
+        );
+      }
+      return { index, name: cell.name, secondsPerUnit: perUnit };
+    }
+    return { index, name: cell.name, secondsPerUnit: byName ? byName[1] : 1 };
+  };
+  if (typeof option === 'number') {
+    if (!Number.isInteger(option) || option < 0 || option >= columnCount) {
+      throw decodeError('option_invalid', `timeColumn (${option}) must be a column index from 0 to ${columnCount - 1}.`);
+    }
+    return scaleOf(header?.[option], option);
+  }
+  if (typeof option === 'string') {
+    if (!header) throw decodeError('option_invalid', `timeColumn '${option}' names a column, but the CSV file has no header row.`);
+    const index = header.findIndex((h) => h.name === option);
+    if (index < 0) {
+      throw decodeError(
+        'option_invalid',
+        `timeColumn '${option}' is not in the header; the columns are ${header.map((h) => `'${h.name}'`).join(', ')}.`,
+      );
+    }
+    return scaleOf(header[index], index);
+  }
+  if (option !== undefined) throw decodeError('option_invalid', 'timeColumn must be a header name, a column index or false.');
+  if (!header) return undefined;
+  const index = header.findIndex((h) => timeNames.some(([re]) => re.test(h.name)));
+  return index < 0 ? undefined : scaleOf(header[index], index);
+}
+
+/** The line number of data row `row`, found again only when an error needs it. */
+function lineOfRow(text: string, start: number, firstLine: number, row: number): number {
+  let pos = start;
+  let line = firstLine;
+  let seen = -1;
+  while (pos < text.length) {
+    const end = lineEnd(text, pos);
+    const content = text.slice(pos, end).trim();
+    if (content !== '' && content.charCodeAt(0) !== HASH && ++seen === row) return line;
+    pos = afterBreak(text, end);
+    line++;
+  }
+  return line;
+}
+
+function timeColumnRate(
+  time: Float64Array,
+  digitExponents: Int16Array,
+  column: TimeColumn,
+  lineOf: (row: number) => number,
+): number {
+  const n = time.length;
+  const k = column.secondsPerUnit;
+  // A time written to resolution u is off by at most u/2, so a step between two of them by up to (u1 + u2)/2.
+  const halfUnitS = (row: number) => 0.5 * 10 ** digitExponents[row] * k;
+  if (n < 2) {
+    throw decodeError('csv_time_invalid', `The time column '${column.name}' has ${n} row; two or more are needed to give a sample rate.`);
+  }
+  const spanS = (time[n - 1] - time[0]) * k;
+  if (!(spanS > 0)) {
+    throw decodeError(
+      'csv_time_invalid',
+      `The time column '${column.name}' does not increase from the first row to the last; times must increase line by line.`,
+    );
+  }
+  const stepS = spanS / (n - 1);
+  // Binary rounding of the parsed times adds a few ulps to the printed resolution.
+  const largest = Math.max(Math.abs(time[0]), Math.abs(time[n - 1])) * k;
+  const fixedToleranceS = csvTimeStepTolerance * stepS + 4 * Number.EPSILON * largest;
+  for (let i = 1; i < n; i++) {
+    const deltaS = (time[i] - time[i - 1]) * k;
+    const toleranceS = fixedToleranceS + halfUnitS(i) + halfUnitS(i - 1);
+    if (!(deltaS > 0)) {
+      const l = lineOf(i);
+      throw decodeError(
+        'csv_time_invalid',
+        `Time does not increase at line ${l} (${time[i]} after ${time[i - 1]} in column '${column.name}'); times must increase line by line.`,
+        `line ${l}`,
+      );
+    }
+    if (Math.abs(deltaS - stepS) > toleranceS) {
+      const l = lineOf(i);
+      throw decodeError(
+        'csv_uneven_time',
+        `Time steps are uneven at line ${l}: ${deltaS.toPrecision(6)} s after the previous line where the mean step is ${stepS.toPrecision(6)} s (tolerance ±${toleranceS.toPrecision(3)} s). Dropped samples leave gaps like this; cut the file at the gap.`,
+        `line ${l}`,
+      );
+    }
+  }
+  const rateHz = (n - 1) / spanS;
+  // Snap to a whole number of hertz when the printed time resolution cannot tell them apart.
+  const whole = Math.round(rateHz);
+  const uncertaintyHz = rateHz * ((halfUnitS(0) + halfUnitS(n - 1)) / spanS + 1e-9);
+  return whole > 0 && Math.abs(rateHz - whole) <= uncertaintyHz ? whole : rateHz;
+}
+
+function chooseSampleRate(
+  optionHz: number | undefined,
+  timeHz: number | undefined,
+  comment: { value: number; line: number } | undefined,
+  metadata: Record<string, string>,
+): number {
+  const disagree = (a: number, b: number) => Math.abs(a - b) > 0.005 * Math.max(a, b);
+  if (optionHz !== undefined) {
+    checkSampleRate(optionHz, 'sampleRateHz');
+    if (timeHz !== undefined && disagree(optionHz, timeHz)) {
+      addWarning(metadata, `the time column gives ${timeHz.toPrecision(8)} Hz but sampleRateHz ${optionHz} was used`);
+    }
+    return optionHz;
+  }
+  if (timeHz !== undefined) {
+    if (comment && disagree(comment.value, timeHz)) {
+      addWarning(metadata, `the comment on line ${comment.line} gives ${comment.value} Hz but the time column gives ${timeHz.toPrecision(8)} Hz, which was used`);
+    }
+    return timeHz;
+  }
+  if (comment) return comment.value;
+  throw decodeError(
+    'sample_rate_invalid',
+    "The CSV file gives no sample rate: add a time column (e.g. 'time_s'), a '# sampleRateHz=25600' comment line, or pass the sample rate.",
+  );
+}
