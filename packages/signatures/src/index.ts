@@ -3,3 +3,6 @@
 export * from './complex.js';
 export * from './errors.js';
 export * from './fourier-series.js';
+export * from './sdof.js';
+export * from './shaft-stiffness.js';
+export * from './torsional-chain.js';
