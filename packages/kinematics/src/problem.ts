@@ -13,7 +13,8 @@ export const problemCodes = [
   // syntax and schema
   'parse_error', // the text is not JSON / YAML
   'required', // a required field is absent
-  'invalid_type', // wrong JSON type or a number that breaks its rule (whole, range)
+  'invalid_type', // wrong JSON type
+  'not_whole_number', // a count (teeth, elements, blades) with a fraction
   'invalid_value', // not one of the allowed words
   'invalid_format', // an id or text that breaks its pattern
   'out_of_range', // a number or a list length outside its bounds

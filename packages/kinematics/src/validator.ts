@@ -66,12 +66,13 @@ function issueCode(issue: z.core.$ZodIssue): ProblemCode {
   switch (issue.code) {
     case 'invalid_type':
       // zod does not keep the input on reported issues; `rule` wrote "is required" for an absent field.
-      return issue.message === 'is required' ? 'required' : 'invalid_type';
+      if (issue.message === 'is required') return 'required';
+      return issue.expected === 'int' ? 'not_whole_number' : 'invalid_type';
     case 'too_small':
     case 'too_big':
       return 'out_of_range';
     case 'not_multiple_of':
-      return 'invalid_type';
+      return 'invalid_value';
     case 'invalid_value':
       return 'invalid_value';
     case 'invalid_format':
