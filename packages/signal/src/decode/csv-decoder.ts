@@ -12,6 +12,8 @@ export interface CsvDecodeOptions {
   header?: boolean;
   /** Time column by header name or 0-based index; `false` for none. Detected from header names when absent. */
   timeColumn?: string | number | false;
+  /** Unit of the time column; by default taken from its header ('time_ms', 'time [ms]'), else seconds. */
+  timeUnit?: 's' | 'ms' | 'us';
   /** Sample rate; overrides the time column and `# sampleRateHz=` comments. */
   sampleRateHz?: number;
   /** Unit of every data channel; overrides units in the header and in comments. */
@@ -220,6 +222,11 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
   }
 
   const timeColumn = resolveTimeColumn(options.timeColumn, headerCells, columnCount);
+  if (timeColumn && options.timeUnit !== undefined) {
+    const perUnit = secondsPerTimeUnit[options.timeUnit];
+    if (perUnit === undefined) throw decodeError('option_invalid', `timeUnit (${String(options.timeUnit)}) must be 's', 'ms' or 'us'.`);
+    timeColumn.secondsPerUnit = perUnit;
+  }
   const dataColumns = columnCount - (timeColumn ? 1 : 0);
   checkRecordingSize(dataColumns, 0, limits, `line ${firstLine}`);
 

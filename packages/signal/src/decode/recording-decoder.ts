@@ -32,6 +32,7 @@ export interface DecodeHint {
   separator?: CsvDecodeOptions['separator'];
   header?: boolean;
   timeColumn?: string | number | false;
+  timeUnit?: CsvDecodeOptions['timeUnit'];
   /** Raw: sample encoding and interleaved channel count. */
   sampleFormat?: 'float32' | 'float64';
   channels?: number;
@@ -134,6 +135,7 @@ export function decodeRecording(bytes: Uint8Array, hint: DecodeHint = {}): Recor
         separator: hint.separator,
         header: hint.header,
         timeColumn: hint.timeColumn,
+        timeUnit: hint.timeUnit,
         sampleRateHz: hint.sampleRateHz,
         unit: hint.unit,
       });

@@ -234,23 +234,17 @@ export function decodeWav(bytes: Uint8Array, options: WavDecodeOptions = {}): Re
     if ((size & 1) === 1 && !printableId(bytes, next) && printableId(bytes, next - 1)) next -= 1;
     pos = next;
   }
-  const endsInsideHeader = pos < length && pos + 8 > length;
-  if (!format) {
-    if (endsInsideHeader || dataOffset < 0) {
-      throw decodeError(
-        endsInsideHeader ? 'wav_truncated' : 'wav_missing_chunk',
-        endsInsideHeader
-          ? `The WAV file ends at byte ${length}, inside a chunk header, before its 'fmt ' chunk; the file is cut short.`
-          : "The WAV file has no 'fmt ' chunk, so its sample encoding is unknown.",
-      );
+  // A missing chunk in a file shorter than its RIFF size says is a cut file rather than a malformed one.
+  const cutShort = (pos < length && pos + 8 > length) || view.getUint32(4, true) + 8 > length;
+  if (!format || dataOffset < 0) {
+    const id = !format ? 'fmt ' : 'data';
+    if (cutShort) {
+      throw decodeError('wav_truncated', `The WAV file ends at byte ${length}, before its '${id}' chunk; the file is cut short.`);
     }
-    throw decodeError('wav_missing_chunk', "The WAV file has no 'fmt ' chunk before its samples end, so their encoding is unknown.");
-  }
-  if (dataOffset < 0) {
     throw decodeError(
-      endsInsideHeader ? 'wav_truncated' : 'wav_missing_chunk',
-      endsInsideHeader
-        ? `The WAV file ends at byte ${length}, inside a chunk header, before its 'data' chunk; the file is cut short.`
+      'wav_missing_chunk',
+      !format
+        ? "The WAV file has no 'fmt ' chunk, so its sample encoding is unknown."
         : "The WAV file has no 'data' chunk: it holds no samples.",
     );
   }
