@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 import { binPower, type Spectrum } from './spectrum.js';
 
 /** A frequency band [lowHz, highHz], both edges included. */
@@ -7,7 +7,7 @@ export type BandHz = readonly [number, number];
 export function assertBand(bandHz: BandHz, parameter = 'bandHz'): void {
   const [lo, hi] = bandHz;
   if (!(Number.isFinite(lo) && Number.isFinite(hi) && lo >= 0 && hi > lo)) {
-    throw new SignalInputError('invalid_band', `${parameter} [${lo}, ${hi}] must be two finite frequencies with 0 <= low < high`);
+    throw spectraError('invalid_band', `${parameter} [${lo}, ${hi}] must be two finite frequencies with 0 <= low < high`);
   }
 }
 
@@ -32,7 +32,7 @@ export function bandRms(spectrum: Spectrum, bandHz?: BandHz): number {
     hi = f.length - 1;
     while (hi >= 0 && f[hi] > high + eps) hi--;
     if (lo > hi) {
-      throw new SignalInputError(
+      throw spectraError(
         'empty_band',
         `bandHz [${low}, ${high}] holds no spectral line (lines every ${spectrum.frequencyResolutionHz} Hz up to ${f[f.length - 1]} Hz)`,
       );

@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 
 /**
  * Per-segment trend removal before windowing, as scipy.signal.welch's `detrend`:
@@ -10,7 +10,7 @@ export const DETREND_MODES: readonly DetrendMode[] = ['mean', 'linear', 'none'];
 
 export function assertDetrendMode(mode: string, parameter = 'detrend'): DetrendMode {
   if (!(DETREND_MODES as readonly string[]).includes(mode)) {
-    throw new SignalInputError('unknown_detrend', `${parameter} '${mode}' is not one of ${DETREND_MODES.join(', ')}`);
+    throw spectraError('unknown_detrend', `${parameter} '${mode}' is not one of ${DETREND_MODES.join(', ')}`);
   }
   return mode as DetrendMode;
 }

@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 import { assertBand, type BandHz } from './band-rms.js';
 import { inverseComplexSpectrum, realToComplexSpectrum } from './fft.js';
 import type { Spectrum } from './spectrum.js';
@@ -53,13 +53,13 @@ function bandKeeper(n: number, sampleRateHz: number, bandHz: BandHz): (k: number
   assertBand(bandHz);
   const nyquist = sampleRateHz / 2;
   if (bandHz[0] >= nyquist) {
-    throw new SignalInputError('band_above_nyquist', `bandHz [${bandHz[0]}, ${bandHz[1]}] starts at or above the Nyquist frequency ${nyquist} Hz`);
+    throw spectraError('band_above_nyquist', `bandHz [${bandHz[0]}, ${bandHz[1]}] starts at or above the Nyquist frequency ${nyquist} Hz`);
   }
   const df = sampleRateHz / n;
   let inBand = 0;
   for (let k = 0; k <= n / 2; k++) if (k * df >= bandHz[0] && k * df <= bandHz[1]) inBand++;
   if (inBand === 0) {
-    throw new SignalInputError('empty_band', `bandHz [${bandHz[0]}, ${bandHz[1]}] holds no spectral line of this record (lines every ${df} Hz)`);
+    throw spectraError('empty_band', `bandHz [${bandHz[0]}, ${bandHz[1]}] holds no spectral line of this record (lines every ${df} Hz)`);
   }
   return (k) => {
     const f = Math.min(k, n - k) * df;
@@ -108,7 +108,7 @@ export function hilbertEnvelope(samples: Float64Array, options: EnvelopeOptions 
   let keep: ((k: number) => boolean) | undefined;
   if (options.bandHz) {
     if (options.sampleRateHz === undefined) {
-      throw new SignalInputError('missing_sample_rate', 'sampleRateHz is required when bandHz is given');
+      throw spectraError('sample_rate_invalid', 'sampleRateHz is required when bandHz is given');
     }
     keep = bandKeeper(n, options.sampleRateHz, options.bandHz);
   }
@@ -140,7 +140,7 @@ export interface EnvelopeSpectrum extends Spectrum {
  */
 export function envelopeSpectrum(samples: Float64Array, sampleRateHz: number, options: EnvelopeSpectrumOptions): EnvelopeSpectrum {
   if (!options || !options.bandHz) {
-    throw new SignalInputError('invalid_band', 'bandHz is required for an envelope spectrum');
+    throw spectraError('invalid_band', 'bandHz is required for an envelope spectrum');
   }
   const { bandHz, squared = false, ...welch } = options;
   const env = hilbertEnvelope(samples, { bandHz, sampleRateHz, squared });

@@ -47,3 +47,4 @@ export {
   type EnvelopeSpectrum,
 } from './envelope.js';
 export { complexFft, realToComplexSpectrum, inverseComplexSpectrum, largestPowerOfTwoAtMost, isPowerOfTwo, type ComplexFft } from './fft.js';
+export { spectraErrorDescriptions, type SpectraErrorCode } from './spectra-error.js';

@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 import type { Spectrum } from './spectrum.js';
 
 /**
@@ -15,7 +15,7 @@ export const DEFAULT_NOISE_FLOOR_WIDTH_BINS = 63;
  */
 export function runningMedian(values: Float64Array, widthBins: number): Float64Array {
   if (!(Number.isInteger(widthBins) && widthBins >= 1 && widthBins % 2 === 1)) {
-    throw new SignalInputError('invalid_width', `widthBins (${widthBins}) must be an odd integer >= 1`);
+    throw spectraError('invalid_width', `widthBins (${widthBins}) must be an odd integer >= 1`);
   }
   const n = values.length;
   const out = new Float64Array(n);

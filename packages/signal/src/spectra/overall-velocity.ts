@@ -1,5 +1,6 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 import { integrateSpectrum } from '../units/frequency-integration.js';
+import { unitError } from '../units/unit-error.js';
 import { convertUnit, quantityOfUnit } from '../units/unit-registry.js';
 import { assertBand, bandRms, type BandHz } from './band-rms.js';
 import { welchSpectrum, type WelchOptions } from './welch.js';
@@ -33,7 +34,7 @@ export function clipBandToNyquist(bandHz: BandHz, sampleRateHz: number, paramete
   const nyquist = sampleRateHz / 2;
   const hi = Math.min(bandHz[1], nyquist);
   if (!(hi > bandHz[0])) {
-    throw new SignalInputError(
+    throw spectraError(
       'band_above_nyquist',
       `${parameter} [${bandHz[0]}, ${bandHz[1]}] lies above the Nyquist frequency ${nyquist} Hz of this recording`,
     );
@@ -54,7 +55,7 @@ export function overallVelocityRms(
 ): OverallVelocity {
   const quantity = quantityOfUnit(unit);
   if (quantity === 'displacement') {
-    throw new SignalInputError('incompatible_units', `cannot derive velocity from a displacement channel ('${unit}')`);
+    throw unitError('incompatible_units', `cannot derive velocity from a displacement channel ('${unit}')`);
   }
   const { bandHz = ISO_VELOCITY_BAND_HZ, lowCutoffHz, ...welch } = options;
   const band = clipBandToNyquist(bandHz, sampleRateHz);

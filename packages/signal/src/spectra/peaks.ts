@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 import { assertBand, type BandHz } from './band-rms.js';
 import { DEFAULT_NOISE_FLOOR_WIDTH_BINS, noiseFloor } from './noise-floor.js';
 import { binPower, valueFromPower, type Spectrum } from './spectrum.js';
@@ -41,7 +41,7 @@ export interface PeakInterpolation {
 export function interpolatePeak(spectrum: Spectrum, bin: number): PeakInterpolation {
   const n = spectrum.values.length;
   if (!(Number.isInteger(bin) && bin >= 0 && bin < n)) {
-    throw new SignalInputError('invalid_bin', `bin (${bin}) must be an integer index 0..${n - 1}`);
+    throw spectraError('invalid_bin', `bin (${bin}) must be an integer index 0..${n - 1}`);
   }
   const p = binPower(spectrum, bin);
   let offset = 0;
@@ -106,11 +106,11 @@ export interface PeakOptions {
 export function findPeaks(spectrum: Spectrum, options: PeakOptions = {}): SpectralPeak[] {
   const count = options.count ?? 10;
   if (!(Number.isInteger(count) && count >= 0)) {
-    throw new SignalInputError('invalid_count', `count (${count}) must be an integer >= 0`);
+    throw spectraError('invalid_count', `count (${count}) must be an integer >= 0`);
   }
   const minProminenceDb = options.minProminenceDb ?? 6;
   if (!Number.isFinite(minProminenceDb)) {
-    throw new SignalInputError('invalid_prominence', `minProminenceDb (${minProminenceDb}) must be a finite number`);
+    throw spectraError('invalid_prominence', `minProminenceDb (${minProminenceDb}) must be a finite number`);
   }
   const floorValues = noiseFloor(spectrum, options.noiseFloorWidthBins ?? DEFAULT_NOISE_FLOOR_WIDTH_BINS);
   const f = spectrum.frequenciesHz;

@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 
 export interface PlotSeries {
   frequenciesHz: Float64Array;
@@ -12,7 +12,7 @@ export interface PlotSeries {
  */
 export function downsampleForPlot(spectrum: PlotSeries, maxPoints: number): PlotSeries {
   if (!(Number.isInteger(maxPoints) && maxPoints >= 2)) {
-    throw new SignalInputError('invalid_max_points', `maxPoints (${maxPoints}) must be an integer >= 2`);
+    throw spectraError('invalid_max_points', `maxPoints (${maxPoints}) must be an integer >= 2`);
   }
   const { frequenciesHz: f, values: v } = spectrum;
   const n = v.length;

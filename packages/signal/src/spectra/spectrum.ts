@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 import type { DetrendMode } from './detrend.js';
 import type { WindowName } from './window.js';
 
@@ -47,14 +47,14 @@ export interface Spectrum {
 
 export function assertScaling(scaling: string, parameter = 'scaling'): SpectrumScaling {
   if (!(SPECTRUM_SCALINGS as readonly string[]).includes(scaling)) {
-    throw new SignalInputError('unknown_scaling', `${parameter} '${scaling}' is not one of ${SPECTRUM_SCALINGS.join(', ')}`);
+    throw spectraError('unknown_scaling', `${parameter} '${scaling}' is not one of ${SPECTRUM_SCALINGS.join(', ')}`);
   }
   return scaling as SpectrumScaling;
 }
 
 export function assertAveraging(mode: string, parameter = 'averaging'): AveragingMode {
   if (!(AVERAGING_MODES as readonly string[]).includes(mode)) {
-    throw new SignalInputError('unknown_averaging', `${parameter} '${mode}' is not one of ${AVERAGING_MODES.join(', ')}`);
+    throw spectraError('unknown_averaging', `${parameter} '${mode}' is not one of ${AVERAGING_MODES.join(', ')}`);
   }
   return mode as AveragingMode;
 }

@@ -215,7 +215,7 @@ describe('welchSpectrum', () => {
       return 'no error';
     };
     expect(code(() => welchSpectrum(x, 100, { segmentLength: 2048 }))).toBe('segment_too_long');
-    expect(code(() => welchSpectrum(x, 0))).toBe('invalid_sample_rate');
+    expect(code(() => welchSpectrum(x, 0))).toBe('sample_rate_invalid');
     expect(code(() => welchSpectrum(x, 100, { overlapFraction: 1 }))).toBe('invalid_overlap');
     expect(code(() => welchSpectrum(x, 100, { segmentLength: 1.5 }))).toBe('invalid_segment_length');
     expect(code(() => welchSpectrum(x, 100, { window: 'kaiser' as WindowName }))).toBe('unknown_window');

@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 import { assertDetrendMode, trendOf, type DetrendMode } from './detrend.js';
 import { complexFft, isPowerOfTwo, largestPowerOfTwoAtMost } from './fft.js';
 import {
@@ -51,21 +51,21 @@ export function welchSpectrum(samples: Float64Array, sampleRateHz: number, optio
   const averaging = assertAveraging(options.averaging ?? 'linear');
   const total = samples.length;
   if (total < 2) {
-    throw new SignalInputError('record_too_short', `the record has ${total} sample(s); a spectrum needs at least 2`);
+    throw spectraError('record_too_short', `the record has ${total} sample(s); a spectrum needs at least 2`);
   }
   const n = options.segmentLength ?? Math.min(DEFAULT_SEGMENT_LENGTH, largestPowerOfTwoAtMost(total));
   if (!Number.isInteger(n) || n < 2) {
-    throw new SignalInputError('invalid_segment_length', `segmentLength (${n}) must be an integer >= 2`);
+    throw spectraError('invalid_segment_length', `segmentLength (${n}) must be an integer >= 2`);
   }
   if (n > total) {
-    throw new SignalInputError(
+    throw spectraError(
       'segment_too_long',
       `segmentLength (${n}) is longer than the record (${total} samples); use at most ${largestPowerOfTwoAtMost(total)}`,
     );
   }
   const overlapFraction = options.overlapFraction ?? 0.5;
   if (!(overlapFraction >= 0 && overlapFraction < 1)) {
-    throw new SignalInputError('invalid_overlap', `overlapFraction (${overlapFraction}) must be >= 0 and < 1`);
+    throw spectraError('invalid_overlap', `overlapFraction (${overlapFraction}) must be >= 0 and < 1`);
   }
   const noverlap = Math.min(n - 1, Math.round(overlapFraction * n));
   const step = n - noverlap;
@@ -142,18 +142,18 @@ export function magnitudeSpectrum(
 
 export function assertSampleRate(sampleRateHz: number, parameter = 'sampleRateHz'): void {
   if (!(Number.isFinite(sampleRateHz) && sampleRateHz > 0)) {
-    throw new SignalInputError('invalid_sample_rate', `${parameter} (${sampleRateHz}) must be a finite number > 0`);
+    throw spectraError('sample_rate_invalid', `${parameter} (${sampleRateHz}) must be a finite number > 0`);
   }
 }
 
 export function assertFiniteSamples(samples: Float64Array, parameter = 'samples'): void {
   if (!(samples instanceof Float64Array)) {
-    throw new SignalInputError('invalid_samples', `${parameter} must be a Float64Array`);
+    throw spectraError('invalid_samples', `${parameter} must be a Float64Array`);
   }
   for (let i = 0; i < samples.length; i++) {
     // x - x is NaN for NaN and +-Infinity, 0 otherwise: one test per sample
     if (samples[i] - samples[i] !== 0) {
-      throw new SignalInputError('non_finite_sample', `${parameter}[${i}] is ${samples[i]}; every sample must be a finite number`, `${parameter}[${i}]`);
+      throw spectraError('non_finite_sample', `${parameter}[${i}] is ${samples[i]}; every sample must be a finite number`, `${parameter}[${i}]`);
     }
   }
 }

@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { spectraError } from './spectra-error.js';
 
 /**
  * Data windows for DFT analysis, all periodic ("DFT-even"), as scipy.signal.get_window returns them
@@ -32,7 +32,7 @@ export function isWindowName(name: string): name is WindowName {
 
 export function assertWindowName(name: string, parameter = 'window'): WindowName {
   if (!isWindowName(name)) {
-    throw new SignalInputError('unknown_window', `${parameter} '${name}' is not one of ${WINDOW_NAMES.join(', ')}`);
+    throw spectraError('unknown_window', `${parameter} '${name}' is not one of ${WINDOW_NAMES.join(', ')}`);
   }
   return name;
 }
@@ -45,7 +45,7 @@ const windowCache = new Map<string, Float64Array>();
  */
 export function windowSamples(name: WindowName, length: number): Float64Array {
   if (!Number.isInteger(length) || length < 1) {
-    throw new SignalInputError('invalid_segment_length', `window length (${length}) must be a positive integer`);
+    throw spectraError('invalid_segment_length', `window length (${length}) must be a positive integer`);
   }
   const key = `${name}:${length}`;
   const cached = windowCache.get(key);

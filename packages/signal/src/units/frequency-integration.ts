@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { unitError } from './unit-error.js';
 import { complexSpectrumToReal, realToComplexSpectrum } from '../spectra/fft.js';
 import { valueUnitOf, type Spectrum } from '../spectra/spectrum.js';
 import { normalizeUnit, quantityOfUnit, siUnitOf, unitScaleFactor, type Quantity } from './unit-registry.js';
@@ -21,7 +21,7 @@ const ORDER: Readonly<Record<Quantity, number>> = { acceleration: 0, velocity: 1
 function integrationSteps(from: string, to: string): number {
   const steps = ORDER[quantityOfUnit(to, 'to')] - ORDER[quantityOfUnit(from, 'from')];
   if (steps < 0) {
-    throw new SignalInputError(
+    throw unitError(
       'incompatible_units',
       `cannot derive '${to}' from '${from}': only integration (acceleration -> velocity -> displacement) is supported`,
     );
@@ -32,7 +32,7 @@ function integrationSteps(from: string, to: string): number {
 function cutoffOf(options: IntegrationOptions): number {
   const cutoff = options.lowCutoffHz ?? DEFAULT_INTEGRATION_CUTOFF_HZ;
   if (!(Number.isFinite(cutoff) && cutoff > 0)) {
-    throw new SignalInputError('invalid_cutoff', `lowCutoffHz (${cutoff}) must be a finite frequency > 0`);
+    throw unitError('invalid_cutoff', `lowCutoffHz (${cutoff}) must be a finite frequency > 0`);
   }
   return cutoff;
 }
@@ -53,7 +53,7 @@ export function integrateSignal(
 ): Float64Array {
   const steps = integrationSteps(fromUnit, toUnit);
   if (!(Number.isFinite(sampleRateHz) && sampleRateHz > 0)) {
-    throw new SignalInputError('invalid_sample_rate', `sampleRateHz (${sampleRateHz}) must be a finite number > 0`);
+    throw unitError('sample_rate_invalid', `sampleRateHz (${sampleRateHz}) must be a finite number > 0`);
   }
   const cutoff = cutoffOf(options);
   if (steps === 0) {

@@ -18,3 +18,4 @@ export {
   integrateSpectrum,
   type IntegrationOptions,
 } from './frequency-integration.js';
+export { unitErrorDescriptions, type UnitErrorCode } from './unit-error.js';

@@ -1,4 +1,4 @@
-import { SignalInputError } from '../errors.js';
+import { unitError } from './unit-error.js';
 
 /** The motion quantities a vibration channel can carry. */
 export type Quantity = 'acceleration' | 'velocity' | 'displacement';
@@ -74,7 +74,7 @@ export function isMotionUnit(unit: string): boolean {
 export function normalizeUnit(unit: string, parameter = 'unit'): MotionUnit {
   const c = canonicalUnit(unit);
   if (c === undefined) {
-    throw new SignalInputError('unknown_unit', `${parameter} '${unit}' is not a known motion unit (one of ${MOTION_UNITS.join(', ')})`);
+    throw unitError('unknown_unit', `${parameter} '${unit}' is not a known motion unit (one of ${MOTION_UNITS.join(', ')})`);
   }
   return c;
 }
@@ -93,7 +93,7 @@ export function unitScaleFactor(from: string, to: string): number {
   const a = UNITS[normalizeUnit(from, 'from')];
   const b = UNITS[normalizeUnit(to, 'to')];
   if (a.quantity !== b.quantity) {
-    throw new SignalInputError(
+    throw unitError(
       'incompatible_units',
       `cannot convert '${from}' (${a.quantity}) to '${to}' (${b.quantity}) by scaling; use integrateSignal or integrateSpectrum`,
     );
