@@ -12,3 +12,4 @@ export * from './gear-tooth-excitation.js';
 export * from './bearing-excitation.js';
 export * from './shaft-excitation.js';
 export * from './electrical-excitation.js';
+export * from './torsional-model.js';
