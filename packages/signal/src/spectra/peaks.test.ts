@@ -104,3 +104,12 @@ describe('findPeaks', () => {
     expect(() => interpolatePeak(s, 99999)).toThrow(/bin \(99999\)/);
   });
 });
+
+describe('findPeaks dynamic range', () => {
+  it('ignores rounding residue far below the strongest line in noiseless data', () => {
+    const s = welchSpectrum(tone(1, 160 * DF), FS, { window: 'hann', segmentLength: SEGMENT, scaling: 'peak' });
+    const peaks = findPeaks(s, { count: 10 });
+    expect(peaks).toHaveLength(1);
+    expect(findPeaks(s, { count: 10, dynamicRangeDb: 400 }).length).toBeGreaterThan(1);
+  });
+});

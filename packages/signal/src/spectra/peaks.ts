@@ -95,13 +95,18 @@ export interface PeakOptions {
   minProminenceDb?: number;
   /** Width of the running-median noise floor in bins (odd); default 63. */
   noiseFloorWidthBins?: number;
+  /**
+   * Lines more than this far (power dB) below the strongest bin are ignored; default 140 dB, beyond the
+   * range of a 24-bit recorder, so rounding residue of noiseless data never shows as peaks.
+   */
+  dynamicRangeDb?: number;
   /** Interpolate frequency and amplitude (default true); false reports the highest bin as read. */
   interpolate?: boolean;
 }
 
 /**
  * Local maxima of a spectrum that stand at least minProminenceDb above the running-median noise
- * floor, each interpolated with interpolatePeak, strongest (by tone power) first.
+ * floor and within dynamicRangeDb of the strongest line, each interpolated with interpolatePeak, strongest (by tone power) first.
  */
 export function findPeaks(spectrum: Spectrum, options: PeakOptions = {}): SpectralPeak[] {
   const count = options.count ?? 10;
@@ -111,6 +116,10 @@ export function findPeaks(spectrum: Spectrum, options: PeakOptions = {}): Spectr
   const minProminenceDb = options.minProminenceDb ?? 6;
   if (!Number.isFinite(minProminenceDb)) {
     throw spectraError('invalid_prominence', `minProminenceDb (${minProminenceDb}) must be a finite number`);
+  }
+  const dynamicRangeDb = options.dynamicRangeDb ?? 140;
+  if (!(dynamicRangeDb > 0)) {
+    throw spectraError('invalid_prominence', `dynamicRangeDb (${dynamicRangeDb}) must be a number of dB > 0`);
   }
   const floorValues = noiseFloor(spectrum, options.noiseFloorWidthBins ?? DEFAULT_NOISE_FLOOR_WIDTH_BINS);
   const f = spectrum.frequenciesHz;
@@ -122,11 +131,15 @@ export function findPeaks(spectrum: Spectrum, options: PeakOptions = {}): Spectr
     while (hi >= lo && f[hi] > options.bandHz[1]) hi--;
   }
   const v = spectrum.values;
+  let strongest = 0;
+  for (let k = 1; k < v.length; k++) strongest = Math.max(strongest, binPower(spectrum, k));
+  const weakest = strongest * 10 ** (-dynamicRangeDb / 10);
   const candidates: SpectralPeak[] = [];
   for (let k = lo; k <= hi; k++) {
     if (!(v[k] > v[k - 1] && v[k] >= v[k + 1])) continue;
     const floorPower = binPower({ ...spectrum, values: floorValues }, k);
     const power = binPower(spectrum, k);
+    if (power < weakest) continue;
     const prominenceDb = floorPower > 0 ? 10 * Math.log10(power / floorPower) : Infinity;
     if (prominenceDb < minProminenceDb) continue;
     const peak =

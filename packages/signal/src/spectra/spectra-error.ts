@@ -22,7 +22,7 @@ export const spectraErrorDescriptions = {
   band_above_nyquist: 'A frequency band lies above the Nyquist frequency of the recording.',
   invalid_bin: 'A bin index is outside the spectrum.',
   invalid_count: 'A peak count is not a whole number >= 0.',
-  invalid_prominence: 'A peak prominence threshold is not a finite number of dB.',
+  invalid_prominence: 'A peak prominence or dynamic-range threshold is not a valid number of dB.',
   invalid_width: 'A running-median width is not an odd whole number of bins.',
   invalid_max_points: 'A plot point budget is not a whole number >= 2.',
 } as const satisfies Record<string, string>;

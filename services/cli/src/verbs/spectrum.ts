@@ -1,12 +1,357 @@
+import { readFileSync } from 'node:fs';
+import { basename } from 'node:path';
+import { parseArgs } from 'node:util';
+import {
+  DEFAULT_SEGMENT_LENGTH,
+  ISO_VELOCITY_BAND_HZ,
+  PREFERRED_UNIT,
+  SignalInputError,
+  WINDOW_NAMES,
+  bandRms,
+  clipBandToNyquist,
+  convertUnit,
+  decodeRecording,
+  envelopeSpectrum,
+  findPeaks,
+  integrateSignal,
+  integrateSpectrum,
+  isMotionUnit,
+  largestPowerOfTwoAtMost,
+  normalizeUnit,
+  quantityOfUnit,
+  welchSpectrum,
+  withScaling,
+  type BandHz,
+  type Channel,
+  type DetrendMode,
+  type Quantity,
+  type Recording,
+  type Spectrum,
+  type SpectrumScaling,
+  type WindowName,
+} from '@kinespec/signal';
 import { CliError } from '../cli-error.js';
 import type { Verb } from '../verb.js';
 
-// Placeholder until its issue lands; replaced by the real verb.
+const USAGE =
+  'kinespec spectrum <file> [--channel N|name] [--window hann|flattop|rectangular|hamming|blackman-harris] ' +
+  '[--segment 8192] [--overlap 0.5] [--scaling peak|rms|psd] [--quantity acceleration|velocity] [--sample-rate Hz] ' +
+  '[--unit g] [--detrend mean|linear|none] [--band LOW-HIGH] [--envelope LOW-HIGH] [--json]';
+
+const SCALINGS = ['peak', 'rms', 'psd'] as const;
+const QUANTITIES = ['acceleration', 'velocity'] as const;
+const DETRENDS = ['mean', 'linear', 'none'] as const;
+/** Peaks listed in the JSON output; the human summary shows the first five. */
+const PEAK_COUNT = 10;
+
+export interface SpectrumSettings {
+  channel?: string;
+  window: WindowName;
+  segmentLength: number;
+  overlapFraction: number;
+  scaling: SpectrumScaling;
+  quantity?: 'acceleration' | 'velocity';
+  detrend: DetrendMode;
+  bandHz?: BandHz;
+  envelopeBandHz?: BandHz;
+}
+
+function oneOf<T extends string>(flag: string, value: string | undefined, allowed: readonly T[], fallback: T): T {
+  if (value === undefined) return fallback;
+  if (!(allowed as readonly string[]).includes(value)) throw new CliError(`--${flag} must be one of ${allowed.join(', ')} (got '${value}')`);
+  return value as T;
+}
+
+function numberFlag(flag: string, text: string | undefined, check: (v: number) => boolean, rule: string): number | undefined {
+  if (text === undefined) return undefined;
+  const v = Number(text);
+  if (text.trim() === '' || !Number.isFinite(v) || !check(v)) throw new CliError(`--${flag} must be ${rule} (got '${text}')`);
+  return v;
+}
+
+/** 'LOW-HIGH' in Hz, e.g. '10-1000' or '2000-8000'. */
+export function parseBand(flag: string, text: string | undefined): BandHz | undefined {
+  if (text === undefined) return undefined;
+  const m = /^\s*(\d+(?:\.\d+)?)\s*-\s*(\d+(?:\.\d+)?)\s*$/.exec(text);
+  const lo = m ? Number(m[1]) : NaN;
+  const hi = m ? Number(m[2]) : NaN;
+  if (!m || !(hi > lo)) throw new CliError(`--${flag} must be LOW-HIGH in Hz with LOW < HIGH, e.g. 10-1000 (got '${text}')`);
+  return [lo, hi];
+}
+
+/** Reads and decodes a recording file; the file name's extension helps pick the decoder. */
+export function loadRecordingFile(path: string, hint: { sampleRateHz?: number; unit?: string } = {}): Recording {
+  let bytes: Uint8Array;
+  try {
+    bytes = readFileSync(path);
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a directory' : code === 'EACCES' ? 'permission denied' : String(code ?? err);
+    throw new CliError(`cannot read '${path}': ${why}`);
+  }
+  return decodeRecording(bytes, { filename: basename(path), ...hint });
+}
+
+/** --channel: an exact channel name, else a 1-based channel number; default the first channel. */
+export function selectChannel(recording: Recording, selector: string | undefined): Channel {
+  const channels = recording.channels;
+  if (selector === undefined) return channels[0];
+  const byName = channels.find((c) => c.name === selector);
+  if (byName) return byName;
+  const n = Number(selector);
+  if (Number.isInteger(n) && n >= 1 && n <= channels.length) return channels[n - 1];
+  const names = channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ');
+  throw new CliError(`--channel '${selector}' matches no channel; the recording has ${names}`);
+}
+
+function parseSettings(args: string[]): { file: string; settings: SpectrumSettings; json: boolean; sampleRateHz?: number; unit?: string } {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args,
+      allowPositionals: true,
+      strict: true,
+      options: {
+        channel: { type: 'string' },
+        window: { type: 'string' },
+        segment: { type: 'string' },
+        overlap: { type: 'string' },
+        scaling: { type: 'string' },
+        quantity: { type: 'string' },
+        'sample-rate': { type: 'string' },
+        unit: { type: 'string' },
+        detrend: { type: 'string' },
+        band: { type: 'string' },
+        envelope: { type: 'string' },
+        json: { type: 'boolean' },
+      },
+    });
+  } catch (err) {
+    throw new CliError(`${(err as Error).message.split('\n')[0]} (usage: ${USAGE})`);
+  }
+  const { values: v, positionals } = parsed;
+  if (positionals.length !== 1) {
+    throw new CliError(positionals.length === 0 ? `a recording file is required (usage: ${USAGE})` : `one recording file at a time (got ${positionals.length})`);
+  }
+  const segmentLength =
+    numberFlag('segment', v.segment, (x) => Number.isInteger(x) && x >= 16, 'a whole number of samples >= 16') ?? DEFAULT_SEGMENT_LENGTH;
+  const overlapFraction = numberFlag('overlap', v.overlap, (x) => x >= 0 && x < 1, 'a fraction >= 0 and < 1') ?? 0.5;
+  const sampleRateHz = numberFlag('sample-rate', v['sample-rate'], (x) => x > 0, 'a sample rate in Hz > 0');
+  if (v.unit !== undefined && v.unit.trim() === '') throw new CliError('--unit must name a unit, e.g. g, m/s^2, mm/s');
+  const settings: SpectrumSettings = {
+    channel: v.channel,
+    window: oneOf('window', v.window, WINDOW_NAMES, 'hann'),
+    segmentLength,
+    overlapFraction,
+    scaling: oneOf('scaling', v.scaling, SCALINGS, 'rms'),
+    quantity: v.quantity === undefined ? undefined : oneOf('quantity', v.quantity, QUANTITIES, 'acceleration'),
+    detrend: oneOf('detrend', v.detrend, DETRENDS, 'mean'),
+    bandHz: parseBand('band', v.band),
+    envelopeBandHz: parseBand('envelope', v.envelope),
+  };
+  return { file: positionals[0], settings, json: v.json === true, sampleRateHz, unit: v.unit };
+}
+
+export interface SpectrumReport {
+  file: string;
+  channel: string;
+  sampleRateHz: number;
+  samples: number;
+  quantity: Quantity | 'unknown';
+  unit: string;
+  valueUnit: string;
+  scaling: SpectrumScaling;
+  window: WindowName;
+  detrend: DetrendMode;
+  segmentLength: number;
+  overlapFraction: number;
+  averages: number;
+  frequencyResolutionHz: number;
+  enbwBins: number;
+  envelope?: { bandHz: [number, number]; squared: boolean };
+  overall: { rms: number; unit: string; bandHz: [number, number] };
+  velocityRmsMmPerS?: number;
+  velocityBandHz?: [number, number];
+  peaks: { frequencyHz: number; amplitude: number; rmsAmplitude: number; prominenceDb: number }[];
+  notes: string[];
+  frequenciesHz: number[];
+  values: number[];
+}
+
+/** The whole analysis behind the verb: channel samples in, the report the verb prints out. */
+export function analyseRecording(recording: Recording, file: string, settings: SpectrumSettings): SpectrumReport {
+  const channel = selectChannel(recording, settings.channel);
+  const fs = recording.sampleRateHz;
+  const notes: string[] = [];
+  if (recording.metadata.warning) notes.push(`decoder: ${recording.metadata.warning}`);
+  const motion = isMotionUnit(channel.unit);
+  const channelQuantity: Quantity | undefined = motion ? quantityOfUnit(channel.unit) : undefined;
+  const unitName = motion ? normalizeUnit(channel.unit) : channel.unit;
+  let quantity: Quantity | undefined = settings.quantity ?? channelQuantity;
+  if (settings.quantity !== undefined && !motion) {
+    throw new CliError(`channel '${channel.name}' is in '${channel.unit || 'no unit'}', not a motion unit: give its unit with --unit (e.g. g)`);
+  }
+  if (settings.quantity === 'acceleration' && channelQuantity !== 'acceleration') {
+    throw new CliError(`channel '${channel.name}' holds ${channelQuantity} (${channel.unit}); acceleration cannot be derived from it`);
+  }
+  if (settings.quantity === 'velocity' && channelQuantity === 'displacement') {
+    throw new CliError(`channel '${channel.name}' holds displacement (${channel.unit}); velocity cannot be derived from it`);
+  }
+  if (settings.envelopeBandHz && settings.quantity === 'velocity') {
+    throw new CliError('--envelope analyses the channel as recorded; leave out --quantity velocity');
+  }
+
+  let segmentLength = settings.segmentLength;
+  const n = channel.samples.length;
+  if (n < 16) throw new CliError(`channel '${channel.name}' has ${n} samples; a spectrum needs at least 16`);
+  if (segmentLength > n) {
+    const fitted = largestPowerOfTwoAtMost(n);
+    notes.push(`segment ${segmentLength} is longer than the record (${n} samples); used ${fitted}`);
+    segmentLength = fitted;
+  }
+
+  let samples = channel.samples;
+  let unit = unitName;
+  if (quantity === 'velocity' && channelQuantity === 'acceleration') {
+    // integrate the whole record once, then analyse: exact for lines between bins, unlike dividing the spectrum
+    samples = integrateSignal(channel.samples, fs, unitName, PREFERRED_UNIT.velocity);
+    unit = PREFERRED_UNIT.velocity;
+  } else if (quantity === 'velocity') {
+    samples = convertUnit(channel.samples, unitName, PREFERRED_UNIT.velocity);
+    unit = PREFERRED_UNIT.velocity;
+  }
+
+  const welch = {
+    window: settings.window,
+    segmentLength,
+    overlapFraction: settings.overlapFraction,
+    detrend: settings.detrend,
+    scaling: settings.scaling,
+    unit,
+  };
+  let spectrum: Spectrum;
+  let envelope: SpectrumReport['envelope'];
+  if (settings.envelopeBandHz) {
+    const band = clipBandToNyquist(settings.envelopeBandHz, fs, '--envelope');
+    spectrum = envelopeSpectrum(samples, fs, { ...welch, bandHz: band });
+    envelope = { bandHz: band, squared: false };
+  } else {
+    spectrum = welchSpectrum(samples, fs, welch);
+  }
+
+  const nyquist = fs / 2;
+  const defaultBand: BandHz = quantity === 'velocity' && !envelope ? ISO_VELOCITY_BAND_HZ : [0, nyquist];
+  const requested = settings.bandHz ?? defaultBand;
+  const band = clipBandToNyquist(requested, fs, '--band');
+  if (band[1] < requested[1] && settings.bandHz) notes.push(`band ${requested[0]}-${requested[1]} Hz clipped to the Nyquist frequency, ${band[1]} Hz`);
+  else if (band[1] < requested[1] && quantity === 'velocity') notes.push(`velocity band clipped to the Nyquist frequency: ${band[0]}-${band[1]} Hz`);
+  const overall = { rms: bandRms(spectrum, band), unit, bandHz: band };
+
+  let velocityRmsMmPerS: number | undefined;
+  let velocityBandHz: [number, number] | undefined;
+  if (!envelope && quantity === 'velocity') {
+    velocityBandHz = band;
+    velocityRmsMmPerS = overall.rms;
+  } else if (!envelope && channelQuantity === 'acceleration') {
+    // ISO 20816 overall from the same averaged spectrum: PSD divided by (2 pi f)^2, no second pass over the samples
+    velocityBandHz = clipBandToNyquist(ISO_VELOCITY_BAND_HZ, fs);
+    velocityRmsMmPerS = bandRms(integrateSpectrum(withScaling(spectrum, 'psd'), PREFERRED_UNIT.velocity), velocityBandHz);
+  }
+
+  const peaks = findPeaks(spectrum, { count: PEAK_COUNT }).map((p) => ({
+    frequencyHz: p.frequencyHz,
+    amplitude: p.amplitude,
+    rmsAmplitude: p.rmsAmplitude,
+    prominenceDb: p.prominenceDb,
+  }));
+
+  return {
+    file,
+    channel: channel.name,
+    sampleRateHz: fs,
+    samples: n,
+    quantity: quantity ?? 'unknown',
+    unit,
+    valueUnit: spectrum.valueUnit,
+    scaling: spectrum.scaling,
+    window: spectrum.window,
+    detrend: spectrum.detrend,
+    segmentLength: spectrum.segmentLength,
+    overlapFraction: spectrum.overlapFraction,
+    averages: spectrum.averages,
+    frequencyResolutionHz: spectrum.frequencyResolutionHz,
+    enbwBins: spectrum.enbwBins,
+    ...(envelope ? { envelope } : {}),
+    overall,
+    ...(velocityRmsMmPerS !== undefined ? { velocityRmsMmPerS, velocityBandHz } : {}),
+    peaks,
+    notes,
+    frequenciesHz: Array.from(spectrum.frequenciesHz),
+    values: Array.from(spectrum.values),
+  };
+}
+
+function sig(x: number, digits = 4): string {
+  if (x === 0) return '0';
+  const a = Math.abs(x);
+  return a >= 1e-3 && a < 1e6 ? String(Number(x.toPrecision(digits))) : x.toExponential(digits - 1);
+}
+
+const WINDOW_TITLE: Record<WindowName, string> = {
+  rectangular: 'rectangular',
+  hann: 'Hann',
+  hamming: 'Hamming',
+  'blackman-harris': 'Blackman-Harris (4-term)',
+  flattop: 'flat-top',
+};
+
+function summary(r: SpectrumReport): string {
+  const lines: string[] = [];
+  const q = r.quantity === 'unknown' ? r.unit || 'no unit' : `${r.quantity}, ${r.unit}`;
+  lines.push(`${r.file}, channel '${r.channel}' (${q}): ${sig(r.sampleRateHz, 6)} Hz, ${r.samples} samples`);
+  if (r.envelope) lines.push(`envelope of the ${r.envelope.bandHz[0]}-${r.envelope.bandHz[1]} Hz band`);
+  const detrend = r.detrend === 'mean' ? 'mean removed' : r.detrend === 'linear' ? 'linear trend removed' : 'no detrend';
+  lines.push(
+    `${WINDOW_TITLE[r.window]} window, ${r.segmentLength}-sample segments, ${Math.round(r.overlapFraction * 100)} % overlap, ` +
+      `${r.averages} average${r.averages === 1 ? '' : 's'}, resolution ${sig(r.frequencyResolutionHz)} Hz, ${detrend}`,
+  );
+  let overall = `overall: ${sig(r.overall.rms)} ${r.overall.unit} rms (${sig(r.overall.bandHz[0])}-${sig(r.overall.bandHz[1])} Hz)`;
+  if (r.velocityRmsMmPerS !== undefined && r.quantity !== 'velocity') {
+    overall += `; velocity ${sig(r.velocityRmsMmPerS)} mm/s rms (${r.velocityBandHz![0]}-${sig(r.velocityBandHz![1])} Hz)`;
+  }
+  lines.push(overall);
+  const label = r.scaling === 'psd' ? r.valueUnit : `${r.unit} ${r.scaling}`;
+  if (r.peaks.length === 0) lines.push('no peak stands 6 dB above the noise floor');
+  else {
+    lines.push(`top peaks (${label}):`);
+    for (const p of r.peaks.slice(0, 5)) lines.push(`  ${sig(p.frequencyHz, 6).padStart(10)} Hz  ${sig(p.amplitude)}`);
+  }
+  for (const note of r.notes) lines.push(`note: ${note}`);
+  return lines.join('\n');
+}
+
 export const spectrumVerb: Verb = {
   name: 'spectrum',
-  summary: 'spectrum (not built yet)',
-  usage: 'kinespec spectrum',
-  async run() {
-    throw new CliError('this verb is not built yet');
+  summary:
+    'spectrum of one channel of a recording (WAV, CSV, JSON, raw float): Welch-averaged, scaled as peak, rms or PSD, ' +
+    'with overall RMS and the strongest peaks; --envelope LOW-HIGH gives the envelope spectrum of that band.\n' +
+    'Defaults: Hann, 8192-sample segments (or the largest power of two the record holds), 50 % overlap, rms, mean removed; ' +
+    'the overall band is the whole spectrum, or 10-1000 Hz in mm/s for --quantity velocity. --channel takes a name or a 1-based number.',
+  usage: USAGE,
+  async run(args, io) {
+    const { file, settings, json, sampleRateHz, unit } = parseSettings(args);
+    const hint: { sampleRateHz?: number; unit?: string } = {};
+    if (sampleRateHz !== undefined) hint.sampleRateHz = sampleRateHz;
+    if (unit !== undefined) hint.unit = unit;
+    let report: SpectrumReport;
+    try {
+      const recording = loadRecordingFile(file, hint);
+      report = analyseRecording(recording, basename(file), settings);
+    } catch (err) {
+      if (err instanceof SignalInputError) throw new CliError(`${basename(file)}: ${err.message}`);
+      throw err;
+    }
+    io.out(json ? JSON.stringify(report) : summary(report));
+    return 0;
   },
 };
