@@ -1,0 +1,141 @@
+import { existsSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import fastifyRateLimit from '@fastify/rate-limit';
+import fastifyStatic from '@fastify/static';
+import fastifySwagger from '@fastify/swagger';
+import fastifySwaggerUi from '@fastify/swagger-ui';
+import Fastify, { type FastifyBaseLogger, type FastifyInstance } from 'fastify';
+import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
+import { authenticate, authorise, bearerToken, type Permission } from './auth.js';
+import type { ServiceConfig } from './config.js';
+import type { Sql } from './database.js';
+import { registerProblemHandlers } from './http-errors.js';
+import { ModelCache } from './model-cache.js';
+import { openApiTransform } from './openapi.js';
+import { problem, problemTypes, problemUri } from './problems.js';
+import { alarmRoutes } from './routes/alarms.js';
+import { healthRoutes, type Readiness } from './routes/health.js';
+import { keyRoutes } from './routes/keys.js';
+import { machineRoutes } from './routes/machines.js';
+import { recordingRoutes } from './routes/recordings.js';
+import { signatureRoutes } from './routes/signatures.js';
+import { siteRoutes } from './routes/site.js';
+import { trendRoutes } from './routes/trends.js';
+import type { ApiKeyRow } from './store.js';
+import { serviceVersion } from './version.js';
+
+declare module 'fastify' {
+  interface FastifyRequest {
+    apiKey: ApiKeyRow | null;
+  }
+  interface FastifyContextConfig {
+    /** What the caller's key must allow; routes without it are public. */
+    permission?: Permission;
+  }
+}
+
+/** What every route plugin receives. */
+export interface Services {
+  sql: Sql;
+  models: ModelCache;
+  config: AppConfig;
+}
+
+export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'>;
+
+export interface BuildAppOptions {
+  sql: Sql;
+  config: AppConfig;
+  /** A pino logger, or false for none (tests). */
+  logger?: FastifyBaseLogger | false;
+  readiness?: Readiness;
+}
+
+/** Builds the HTTP application (not listening). */
+export async function buildApp(options: BuildAppOptions): Promise<FastifyInstance> {
+  const app = Fastify({
+    ...(options.logger ? { loggerInstance: options.logger } : { logger: false }),
+    bodyLimit: options.config.maxUploadBytes,
+    // keep-alive connections must not hold a graceful shutdown open
+    forceCloseConnections: 'idle',
+    return503OnClosing: true,
+    ajv: { customOptions: { coerceTypes: false } },
+  }).withTypeProvider<ZodTypeProvider>();
+  app.setValidatorCompiler(validatorCompiler);
+  app.setSerializerCompiler(serializerCompiler);
+  app.decorateRequest('apiKey', null);
+  registerProblemHandlers(app);
+
+  const services: Services = { sql: options.sql, models: new ModelCache(), config: options.config };
+
+  await app.register(fastifySwagger, {
+    openapi: {
+      openapi: '3.1.0',
+      info: {
+        title: 'Kinespec API',
+        version: serviceVersion(),
+        description:
+          'Condition monitoring for rotating machinery: recordings in, analyses, trends and alarms out. ' +
+          'Authenticate with `Authorization: Bearer <key>`. Errors are RFC 9457 problem details; their types:\n\n' +
+          problemTypes.map((p) => `- \`${problemUri(p.slug)}\` (${p.status}): ${p.title}`).join('\n'),
+      },
+      components: { securitySchemes: { apiKey: { type: 'http', scheme: 'bearer' } } },
+      security: [{ apiKey: [] }],
+    },
+    transform: openApiTransform,
+  });
+  await app.register(fastifySwaggerUi, { routePrefix: '/docs' });
+
+  if (options.config.rateLimitMax > 0) {
+    await app.register(fastifyRateLimit, {
+      global: true,
+      max: options.config.rateLimitMax,
+      timeWindow: options.config.rateLimitWindowMs,
+      // one budget per key (hashed, so the key never sits in memory as a map key), else per address
+      keyGenerator: (request) => {
+        const token = bearerToken(request);
+        return token ? `key:${createHash('sha256').update(token).digest('base64url').slice(0, 22)}` : `ip:${request.ip}`;
+      },
+      allowList: (request) => request.url === '/health' || request.url === '/ready',
+      errorResponseBuilder: (_request, context) =>
+        problem('rate-limited', `rate limit of ${context.max} requests per window reached; retry in ${context.after}`),
+    });
+  }
+
+  // authentication before the body is read: an unknown caller cannot make the service buffer an upload
+  app.addHook('onRequest', async (request) => {
+    const permission = request.routeOptions.config.permission;
+    if (!permission) return;
+    const key = await authenticate(services.sql, request);
+    authorise(key, permission);
+    request.apiKey = key;
+  });
+
+  await app.register(healthRoutes, { services, readiness: options.readiness });
+  await app.register(
+    async (api) => {
+      await api.register(siteRoutes, { services });
+      await api.register(machineRoutes, { services });
+      await api.register(recordingRoutes, { services });
+      await api.register(trendRoutes, { services });
+      await api.register(alarmRoutes, { services });
+      await api.register(keyRoutes, { services });
+      await api.register(signatureRoutes, { services });
+    },
+    { prefix: '/api/v1' },
+  );
+
+  app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
+
+  if (options.config.consoleDir && existsSync(options.config.consoleDir)) {
+    await app.register(fastifyStatic, { root: options.config.consoleDir, prefix: '/', wildcard: false, index: ['index.html'] });
+  } else {
+    app.get('/', { schema: { hide: true } }, async (_request, reply) =>
+      reply.type('text/html').send(
+        '<!doctype html><title>Kinespec</title><p>The Kinespec API is running. The web console is not built ' +
+          '(<code>npm run build -w services/console</code>). API documentation: <a href="/docs">/docs</a>.</p>',
+      ),
+    );
+  }
+  return app;
+}

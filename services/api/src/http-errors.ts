@@ -1,0 +1,84 @@
+import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
+import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
+import { problem, ProblemError, recordingProblem, type FieldError } from './problems.js';
+
+/*
+ * Every error leaves as RFC 9457 application/problem+json from the registry in problems.ts.
+ * Unexpected errors are logged with their stack and answered with a bare internal-error: the body
+ * never carries a stack trace or a driver message.
+ */
+
+const frameworkCodes: Record<string, (e: FastifyError) => ProblemError> = {
+  FST_ERR_CTP_BODY_TOO_LARGE: () => problem('payload-too-large', 'the request body is larger than KINESPEC_MAX_UPLOAD_BYTES allows'),
+  FST_REQ_FILE_TOO_LARGE: () => problem('payload-too-large', 'the uploaded file is larger than KINESPEC_MAX_UPLOAD_BYTES allows'),
+  FST_PARTS_LIMIT: () => problem('payload-too-large', 'the form has too many parts'),
+  FST_FILES_LIMIT: () => problem('payload-too-large', 'send one file per request'),
+  FST_FIELDS_LIMIT: () => problem('payload-too-large', 'the form has too many fields'),
+  FST_ERR_CTP_INVALID_MEDIA_TYPE: () => problem('unsupported-media-type', 'this route does not accept that content type'),
+  FST_INVALID_MULTIPART_CONTENT_TYPE: () => problem('unsupported-media-type', 'the request is not multipart/form-data'),
+  FST_ERR_CTP_EMPTY_JSON_BODY: () => problem('bad-request', 'the JSON body is empty'),
+  FST_ERR_CTP_INVALID_JSON_BODY: (e) => problem('bad-request', `the body is not valid JSON: ${e.message}`),
+  FST_ERR_CTP_INVALID_CONTENT_LENGTH: () => problem('bad-request', 'Content-Length does not match the body'),
+  FST_ERR_CTP_EMPTY_TYPE: () => problem('unsupported-media-type', 'the request has an empty Content-Type'),
+  FST_ERR_CTP_INVALID_TYPE: () => problem('unsupported-media-type', 'the Content-Type is not valid'),
+  FST_ERR_VALIDATION: (e) => problem('validation-failed', e.message),
+};
+
+function byStatus(status: number, message: string): ProblemError {
+  switch (status) {
+    case 401: return problem('unauthorized', message);
+    case 403: return problem('forbidden', message);
+    case 404: return problem('not-found', message);
+    case 413: return problem('payload-too-large', message);
+    case 415: return problem('unsupported-media-type', message);
+    case 429: return problem('rate-limited', message);
+    case 503: return problem('service-unavailable', message);
+    default: return problem('bad-request', message);
+  }
+}
+
+const partNames: Record<string, string> = { querystring: 'query', params: 'path', body: 'body', headers: 'header' };
+
+/** Turns anything thrown in a request into a registered problem. */
+export function toProblem(error: unknown): ProblemError | null {
+  if (error instanceof ProblemError) return error;
+  if (hasZodFastifySchemaValidationErrors(error)) {
+    const context = partNames[(error as { validationContext?: string }).validationContext ?? ''] ?? 'request';
+    const errors: FieldError[] = error.validation.map((v) => ({
+      path: [context, ...v.instancePath.split('/').filter(Boolean)].join('.'),
+      message: v.message ?? 'is not valid',
+      code: v.keyword,
+    }));
+    const first = errors[0]!;
+    return problem('validation-failed', `${first.path}: ${first.message}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
+  }
+  const e = error as Partial<FastifyError> & { name?: string; where?: string };
+  if (e?.name === 'SignalInputError' && typeof e.code === 'string') return recordingProblem(e.code, e.message ?? '', e.where);
+  if (typeof e?.code === 'string' && frameworkCodes[e.code]) return frameworkCodes[e.code]!(e as FastifyError);
+  const status = e?.statusCode;
+  if (typeof status === 'number' && status >= 400 && status < 500) return byStatus(status, e.message ?? 'bad request');
+  return null;
+}
+
+export function sendProblem(reply: FastifyReply, request: FastifyRequest, p: ProblemError): FastifyReply {
+  for (const [name, value] of Object.entries(p.extras.headers ?? {})) reply.header(name, value);
+  return reply
+    .code(p.status)
+    .type('application/problem+json')
+    .send(JSON.stringify(p.body(request.url.split('?')[0])));
+}
+
+export function registerProblemHandlers(app: FastifyInstance): void {
+  app.setErrorHandler((error, request, reply) => {
+    const p = toProblem(error);
+    if (p) {
+      if (p.status >= 500) request.log.error({ err: error }, 'request failed');
+      return sendProblem(reply, request, p);
+    }
+    request.log.error({ err: error }, 'unexpected error');
+    return sendProblem(reply, request, problem('internal-error', `the service failed; the log holds the details (request ${request.id})`));
+  });
+  app.setNotFoundHandler((request, reply) =>
+    sendProblem(reply, request, problem('not-found', `no route ${request.method} ${request.url.split('?')[0]}`)),
+  );
+}

@@ -1,0 +1,220 @@
+import { createHash } from 'node:crypto';
+import { decodeRecording, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
+import { analyse, softwareVersion, type RecordingAnalysis } from './analysis.js';
+import { evaluateAlarms } from './alarms.js';
+import type { Sql } from './database.js';
+import type { ModelCache } from './model-cache.js';
+import { problem, ProblemError, recordingProblem } from './problems.js';
+import { packSamples, unpackSamples } from './samples-codec.js';
+import {
+  findDuplicateRecording,
+  getCurrentAnalysis,
+  insertAnalysis,
+  insertRecording,
+  lockPoint,
+  modelVersionAt,
+  writeTrendValues,
+  type ApiKeyRow,
+  type MachineRow,
+  type PointRow,
+} from './store.js';
+
+/*
+ * Ingest: bytes in, one stored recording with its analysis, trend values and alarms out, in one
+ * transaction. Decoding and analysis run before the transaction opens, so a bad body stores nothing
+ * and a slow analysis holds no lock.
+ */
+
+export interface UploadInput {
+  key: ApiKeyRow;
+  machine: MachineRow;
+  point: PointRow;
+  bytes: Buffer;
+  /** What the decoder knows: content type, file name, sample rate, unit, raw sample format. */
+  hint: DecodeHint;
+  sourceFormat: string;
+  idempotencyKey: string | null;
+  recordedAt: Date | null;
+  speedRpm: number | null;
+}
+
+export interface AnalysisSummary {
+  analysisId: string;
+  velocityRmsMmPerS: number | null;
+  zone: 'A' | 'B' | 'C' | 'D' | null;
+  speedHz: number | null;
+  speedSource: string | null;
+  topHypotheses: Array<{ fault: string; component: string; score: number; reason: string }>;
+}
+
+export interface UploadResult {
+  status: 200 | 201;
+  body: { recordingId: string; duplicate: boolean; analysis: AnalysisSummary | null };
+}
+
+export function summarise(analysisId: string, a: RecordingAnalysis): AnalysisSummary {
+  return {
+    analysisId,
+    velocityRmsMmPerS: finiteOrNull(a.overall?.velocityRmsMmPerS),
+    zone: a.overall?.zone ?? null,
+    speedHz: finiteOrNull(a.speedHz),
+    speedSource: a.speedSource ?? null,
+    // hypotheses come highest score first, so those >= 0.5 lead
+    topHypotheses: (a.hypotheses ?? []).slice(0, 5).map((h) => ({ fault: h.fault, component: h.component, score: h.score, reason: h.reason })),
+  };
+}
+
+function finiteOrNull(x: number | null | undefined): number | null {
+  return typeof x === 'number' && Number.isFinite(x) ? x : null;
+}
+
+/** Decodes the body; decoder errors become their problem types. */
+export function decodeBody(bytes: Buffer, hint: DecodeHint): Recording {
+  try {
+    return decodeRecording(new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength), hint);
+  } catch (err) {
+    if (err instanceof SignalInputError) throw recordingProblem(err.code, err.message, err.where);
+    throw err;
+  }
+}
+
+/** Analysis errors of the packages (bad unit, too short a record) are the client's: 422, nothing stored. */
+export function runAnalysis(recording: Recording, options: Parameters<typeof analyse>[1]): RecordingAnalysis {
+  try {
+    return analyse(recording, options);
+  } catch (err) {
+    const e = err as { name?: string; code?: unknown; message?: string };
+    if (err instanceof Error && typeof e.code === 'string' && /InputError$/.test(e.name ?? '')) {
+      throw new ProblemError('analysis-failed', e.message ?? 'the recording could not be analysed', { code: e.code });
+    }
+    throw err;
+  }
+}
+
+/** Drops non-finite numbers that JSON cannot carry (NaN kurtosis of a constant record, say). */
+export function jsonSafe<T>(value: T): T {
+  return JSON.parse(JSON.stringify(value, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))) as T;
+}
+
+function isUniqueViolation(err: unknown): boolean {
+  return typeof err === 'object' && err !== null && (err as { code?: string }).code === '23505';
+}
+
+function recordedAtOf(input: UploadInput, recording: Recording): Date {
+  if (input.recordedAt) return input.recordedAt;
+  for (const key of ['recordedAt', 'recorded_at', 'startTime', 'start_time', 'timestamp']) {
+    const text = recording.metadata[key];
+    if (text) {
+      const at = new Date(text);
+      if (!Number.isNaN(at.getTime())) return at;
+    }
+  }
+  return new Date();
+}
+
+async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer): Promise<UploadResult | null> {
+  const earlier = await findDuplicateRecording(sql, {
+    siteId: input.key.siteId,
+    pointId: input.point.id,
+    idempotencyKey: input.idempotencyKey,
+    contentHash,
+  });
+  if (!earlier) return null;
+  if (!earlier.contentHash.equals(contentHash) || earlier.pointId !== input.point.id) {
+    throw problem(
+      'idempotency-key-reused',
+      `Idempotency-Key '${input.idempotencyKey}' was first used for recording ${earlier.id} with other content or another point; use a new key for new content`,
+    );
+  }
+  const current = await getCurrentAnalysis(sql, earlier.id);
+  return {
+    status: 200,
+    body: {
+      recordingId: earlier.id,
+      duplicate: true,
+      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis) : null,
+    },
+  };
+}
+
+export async function ingestRecording(sql: Sql, models: ModelCache, input: UploadInput): Promise<UploadResult> {
+  const contentHash = createHash('sha256').update(input.bytes).digest();
+  const retry = await duplicateResult(sql, input, contentHash);
+  if (retry) return retry;
+
+  const decoded = decodeBody(input.bytes, input.hint);
+  const sampleCount = decoded.channels[0]?.samples.length ?? 0;
+  const samples = packSamples(decoded.channels.map((c) => c.samples));
+  // analyse exactly what is stored (float32), so a re-analysis of the same version repeats the result
+  const stored = unpackSamples(samples, decoded.channels.length);
+  const recording: Recording = {
+    sampleRateHz: decoded.sampleRateHz,
+    metadata: decoded.metadata,
+    channels: decoded.channels.map((c, i) => ({ name: c.name, unit: c.unit, samples: stored[i]! })),
+  };
+  const recordedAt = recordedAtOf(input, recording);
+  const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);
+  const model = modelVersion === null ? null : await models.get(sql, input.machine.id, modelVersion);
+  const analysis = jsonSafe(
+    runAnalysis(recording, {
+      model,
+      pointId: input.point.pointKey,
+      ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
+    }),
+  );
+  const top = analysis.hypotheses[0];
+
+  try {
+    return await sql.begin(async (tx) => {
+      await lockPoint(tx, input.point.id);
+      const recordingId = await insertRecording(tx, {
+        siteId: input.key.siteId,
+        pointId: input.point.id,
+        recordedAt,
+        sampleRateHz: recording.sampleRateHz,
+        sampleCount,
+        channels: recording.channels.map((c) => ({ name: c.name, unit: c.unit })),
+        samples,
+        contentHash,
+        idempotencyKey: input.idempotencyKey,
+        sourceFormat: input.sourceFormat,
+        speedRpm: input.speedRpm,
+        metadata: recording.metadata,
+        uploadedBy: input.key.id,
+      });
+      const stored = await insertAnalysis(tx, {
+        recordingId,
+        modelVersion,
+        softwareVersion: analysis.softwareVersion ?? softwareVersion(),
+        speedHz: analysis.speedHz,
+        speedSource: analysis.speedSource,
+        velocityRmsMmPerS: analysis.overall.velocityRmsMmPerS,
+        zone: analysis.overall.zone,
+        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
+        result: analysis,
+      });
+      await writeTrendValues(tx, {
+        pointId: input.point.id,
+        recordingId,
+        analysisId: stored.id,
+        recordedAt,
+        indicators: analysis.indicators,
+      });
+      await evaluateAlarms(tx, {
+        siteId: input.key.siteId,
+        point: input.point,
+        recordingId,
+        recordedAt,
+        indicators: analysis.indicators,
+      });
+      return { status: 201 as const, body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis) } };
+    });
+  } catch (err) {
+    // a concurrent retry won the race to the unique index: answer as the retry it is
+    if (isUniqueViolation(err)) {
+      const again = await duplicateResult(sql, input, contentHash);
+      if (again) return again;
+    }
+    throw err;
+  }
+}

@@ -1,0 +1,82 @@
+import type { Recording } from '@kinespec/signal';
+import { softwareVersion, type RecordingAnalysis } from './analysis.js';
+import { evaluateAlarms } from './alarms.js';
+import type { Sql } from './database.js';
+import { jsonSafe, runAnalysis } from './ingest.js';
+import type { ModelCache } from './model-cache.js';
+import { problem } from './problems.js';
+import { unpackSamples } from './samples-codec.js';
+import {
+  getPointById,
+  getRecording,
+  getRecordingSamples,
+  insertAnalysis,
+  listMachineRecordingIds,
+  lockPoint,
+  writeTrendValues,
+  type MachineRow,
+  type PointRow,
+} from './store.js';
+
+/**
+ * Analyses every stored recording of a machine again against its current model version. Each new
+ * analysis becomes current; the earlier ones stay, with the model and software versions that made them.
+ * Recordings are done one at a time, each in its own transaction, oldest first.
+ */
+export async function reanalyseMachine(
+  sql: Sql,
+  models: ModelCache,
+  machine: MachineRow,
+): Promise<{ analysed: number; failed: Array<{ recordingId: string; reason: string }>; modelVersion: number }> {
+  const version = machine.currentModelVersion;
+  if (version === null) throw problem('no-machine-model', `machine '${machine.machineKey}' has no model version yet`);
+  const model = await models.get(sql, machine.id, version);
+  const points = new Map<number, PointRow>();
+  const failed: Array<{ recordingId: string; reason: string }> = [];
+  let analysed = 0;
+  for (const { id, pointId } of await listMachineRecordingIds(sql, machine.id)) {
+    let point = points.get(pointId);
+    if (!point) {
+      point = (await getPointById(sql, pointId))!;
+      points.set(pointId, point);
+    }
+    const row = await getRecording(sql, machine.siteId, id);
+    const bytes = await getRecordingSamples(sql, id);
+    if (!row || !bytes) continue;
+    const channels = unpackSamples(bytes, row.channels.length);
+    const recording: Recording = {
+      sampleRateHz: row.sampleRateHz,
+      metadata: row.metadata,
+      channels: row.channels.map((c, i) => ({ name: c.name, unit: c.unit, samples: channels[i]! })),
+    };
+    let analysis: RecordingAnalysis;
+    try {
+      analysis = jsonSafe(
+        runAnalysis(recording, { model, pointId: point.pointKey, ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}) }),
+      );
+    } catch (err) {
+      failed.push({ recordingId: id, reason: err instanceof Error ? err.message : String(err) });
+      continue;
+    }
+    const top = analysis.hypotheses[0];
+    const p = point;
+    await sql.begin(async (tx) => {
+      await lockPoint(tx, pointId);
+      const stored = await insertAnalysis(tx, {
+        recordingId: id,
+        modelVersion: version,
+        softwareVersion: analysis.softwareVersion ?? softwareVersion(),
+        speedHz: analysis.speedHz,
+        speedSource: analysis.speedSource,
+        velocityRmsMmPerS: analysis.overall.velocityRmsMmPerS,
+        zone: analysis.overall.zone,
+        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
+        result: analysis,
+      });
+      await writeTrendValues(tx, { pointId, recordingId: id, analysisId: stored.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
+      await evaluateAlarms(tx, { siteId: machine.siteId, point: p, recordingId: id, recordedAt: row.recordedAt, indicators: analysis.indicators });
+    });
+    analysed++;
+  }
+  return { analysed, failed, modelVersion: version };
+}

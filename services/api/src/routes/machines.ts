@@ -1,0 +1,226 @@
+import { parseMachineModel } from '@kinespec/kinematics';
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { z } from 'zod';
+import { levelsOf } from '../alarms.js';
+import type { Services } from '../app.js';
+import { MAIN_INDICATOR } from '../indicators.js';
+import { parseModelText, storeMachineModel } from '../machine-models.js';
+import { problem } from '../problems.js';
+import { reanalyseMachine } from '../reanalysis.js';
+import { hypothesisRefSchema, idParam, iso, zoneSchema } from '../schemas.js';
+import {
+  countOpenAlarmsByMachine,
+  findMachine,
+  getModelVersion,
+  latestPerPoint,
+  listMachineRows,
+  listModelVersions,
+  listPoints,
+  weeklySparklines,
+} from '../store.js';
+
+const MODEL_TYPES = ['application/json', 'application/yaml', 'application/x-yaml', 'text/yaml', 'text/x-yaml', 'text/plain'];
+const ZONE_ORDER = ['A', 'B', 'C', 'D'];
+const SPARKLINE_WEEKS = 12;
+
+const pointSchema = z.object({
+  id: z.string(),
+  quantity: z.string(),
+  unit: z.string().optional(),
+  near: z.string().optional(),
+  shaft: z.string().optional(),
+  direction: z.string().optional(),
+  alarmLevel: z.number().nullable().optional(),
+  tripLevel: z.number().nullable().optional(),
+});
+
+const machineSummarySchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  modelVersion: z.number().nullable(),
+  worstZone: zoneSchema,
+  topHypothesis: hypothesisRefSchema.nullable(),
+  lastMeasuredAt: z.string().nullable(),
+  activeAlarms: z.number(),
+  mainIndicator: z.object({
+    indicator: z.string(),
+    unit: z.string(),
+    sparkline: z.array(z.object({ start: z.string(), mean: z.number() })),
+  }),
+});
+
+function optional<T>(v: T | null): T | undefined {
+  return v === null ? undefined : v;
+}
+
+export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = async (app, { services }) => {
+  const { sql } = services;
+
+  // model files are read as text (JSON or YAML) and handed to the kinematics validator as they are
+  app.removeContentTypeParser(['application/json', 'text/plain']);
+  app.addContentTypeParser(MODEL_TYPES, { parseAs: 'string', bodyLimit: 4 * 1024 * 1024 }, (_request, body, done) => done(null, body));
+
+  async function machineOf(siteId: string, machineKey: string) {
+    const machine = await findMachine(sql, siteId, machineKey);
+    if (!machine) throw problem('not-found', `no machine '${machineKey}' on this site`);
+    return machine;
+  }
+
+  app.get('/machines', {
+    config: { permission: 'read' },
+    schema: {
+      summary: 'Every machine of the site with its worst zone, best hypothesis, alarms and a weekly sparkline',
+      tags: ['machines'],
+      response: { 200: z.array(machineSummarySchema) },
+    },
+  }, async (request) => {
+    const siteId = request.apiKey!.siteId;
+    const from = new Date(Date.now() - SPARKLINE_WEEKS * 7 * 86_400_000);
+    const [machines, latest, alarms, sparks] = await Promise.all([
+      listMachineRows(sql, siteId),
+      latestPerPoint(sql, siteId),
+      countOpenAlarmsByMachine(sql, siteId),
+      weeklySparklines(sql, { siteId, indicator: MAIN_INDICATOR, from }),
+    ]);
+    return machines.map((m) => {
+      const mine = latest.filter((l) => l.machineId === m.id);
+      const zones = mine.map((l) => l.zone).filter((z): z is 'A' | 'B' | 'C' | 'D' => z !== null);
+      const worstZone = zones.length ? zones.reduce((a, b) => (ZONE_ORDER.indexOf(b) > ZONE_ORDER.indexOf(a) ? b : a)) : null;
+      const hyps = mine.map((l) => l.topHypothesis).filter((h) => h !== null);
+      const top = hyps.length ? hyps.reduce((a, b) => (b.score > a.score ? b : a)) : null;
+      const last = mine.reduce<Date | null>((a, l) => (a === null || l.recordedAt > a ? l.recordedAt : a), null);
+      return {
+        id: m.machineKey,
+        name: m.name,
+        modelVersion: m.currentModelVersion,
+        worstZone,
+        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score } : null,
+        lastMeasuredAt: iso(last),
+        activeAlarms: alarms.get(m.id) ?? 0,
+        mainIndicator: {
+          indicator: MAIN_INDICATOR,
+          unit: 'mm/s',
+          sparkline: sparks.filter((s) => s.machineId === m.id).map((s) => ({ start: iso(s.start), mean: s.mean })),
+        },
+      };
+    });
+  });
+
+  app.get('/machines/:machineId', {
+    config: { permission: 'read' },
+    schema: {
+      summary: 'A machine: its current model version, the model, its points with alarm and trip levels',
+      tags: ['machines'],
+      params: z.object({ machineId: idParam }),
+      response: {
+        200: z.object({
+          id: z.string(),
+          name: z.string(),
+          modelVersion: z.number().nullable(),
+          model: z.unknown(),
+          modelVersions: z.array(z.object({ version: z.number(), validFrom: z.string(), createdAt: z.string() })),
+          points: z.array(pointSchema),
+        }),
+      },
+    },
+  }, async (request) => {
+    const machine = await machineOf(request.apiKey!.siteId, request.params.machineId);
+    const [points, versions, model] = await Promise.all([
+      listPoints(sql, machine.id),
+      listModelVersions(sql, machine.id),
+      machine.currentModelVersion === null ? null : getModelVersion(sql, machine.id, machine.currentModelVersion),
+    ]);
+    return {
+      id: machine.machineKey,
+      name: machine.name,
+      modelVersion: machine.currentModelVersion,
+      model: model?.model ?? null,
+      modelVersions: versions.map((v) => ({ version: v.version, validFrom: iso(v.validFrom), createdAt: iso(v.createdAt) })),
+      points: points.map((p) => {
+        const levels = levelsOf(p, MAIN_INDICATOR);
+        return {
+          id: p.pointKey,
+          quantity: p.quantity,
+          unit: optional(p.unit),
+          near: optional(p.near),
+          shaft: optional(p.shaft),
+          direction: optional(p.direction),
+          alarmLevel: levels.alarmLevel,
+          tripLevel: levels.tripLevel,
+        };
+      }),
+    };
+  });
+
+  app.put('/machines/:machineId/model', {
+    config: { permission: 'manage' },
+    schema: {
+      summary: 'Store a new version of the machine model (JSON or YAML); creates the machine on its first version',
+      description:
+        "The body is a machine model file. Invalid models get 422 with every validator problem in `errors` ({ path, code, message }). " +
+        'Optional `validFrom` (ISO time): recordings taken from then on are analysed against this version (default: now).',
+      tags: ['machines'],
+      params: z.object({ machineId: idParam }),
+      querystring: z.object({ validFrom: z.string().optional() }),
+      rawBody: { consumes: MODEL_TYPES, description: 'The machine model file, JSON or YAML' },
+      response: { 200: z.object({ machineId: z.string(), version: z.number() }) },
+    } as Record<string, unknown>,
+  }, async (request) => {
+    const body = request.body;
+    if (typeof body !== 'string' || body.trim() === '') throw problem('bad-request', 'send the machine model file as the body (JSON or YAML)');
+    const query = request.query as { validFrom?: string };
+    let validFrom: Date | undefined;
+    if (query.validFrom !== undefined) {
+      validFrom = new Date(query.validFrom);
+      if (Number.isNaN(validFrom.getTime())) {
+        throw problem('validation-failed', 'query.validFrom: must be an ISO 8601 time', { errors: [{ path: 'query.validFrom', message: 'must be an ISO 8601 time' }] });
+      }
+    }
+    const model = parseModelText(body, request.headers['content-type']);
+    const params = request.params as { machineId: string };
+    return storeMachineModel(sql, {
+      siteId: request.apiKey!.siteId,
+      machineKey: params.machineId,
+      model,
+      sourceText: body,
+      createdBy: request.apiKey!.id,
+      ...(validFrom ? { validFrom } : {}),
+    });
+  });
+
+  app.post('/models/validate', {
+    config: { permission: 'read' },
+    schema: {
+      summary: 'Validate a machine model file without storing it; every problem with its JSON path',
+      tags: ['machines'],
+      rawBody: { consumes: MODEL_TYPES, description: 'The machine model file, JSON or YAML' },
+      response: {
+        200: z.object({ ok: z.boolean(), problems: z.array(z.object({ path: z.string(), code: z.string(), message: z.string() })) }),
+      },
+    } as Record<string, unknown>,
+  }, async (request) => {
+    const body = typeof request.body === 'string' ? request.body : '';
+    const type = request.headers['content-type']?.split(';')[0]?.trim().toLowerCase();
+    const result = parseMachineModel(body, type === 'application/json' ? 'json' : type && /yaml/.test(type) ? 'yaml' : undefined);
+    return result.ok ? { ok: true, problems: [] } : { ok: false, problems: result.problems };
+  });
+
+  app.post('/machines/:machineId/reanalyse', {
+    config: { permission: 'manage' },
+    schema: {
+      summary: "Analyse the machine's stored recordings again against its current model version; earlier analyses are kept",
+      tags: ['machines'],
+      params: z.object({ machineId: idParam }),
+      response: {
+        200: z.object({
+          analysed: z.number(),
+          modelVersion: z.number(),
+          failed: z.array(z.object({ recordingId: z.string(), reason: z.string() })),
+        }),
+      },
+    },
+  }, async (request) => {
+    const machine = await machineOf(request.apiKey!.siteId, request.params.machineId);
+    return reanalyseMachine(sql, services.models, machine);
+  });
+};
