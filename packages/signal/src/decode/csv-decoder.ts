@@ -245,123 +245,24 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
   // Per row, the decimal exponent of the time cell's last digit: the resolution each time was written with.
   const timeDigitExponents = new Int16Array(timeColumn ? capacity : 0);
 
-  const where = (l: number, col: number) => `line ${l}, column ${col + 1}`;
-  const columnLabel = (col: number) => (headerCells ? ` ('${headerCells[col].name}')` : '');
-  const countError = (l: number, cells: number): never => {
-    throw decodeError(
-      'csv_column_count',
-      `Line ${l} has ${cells} cell${cells === 1 ? '' : 's'} but line ${firstLine}${header ? ' (the header)' : ''} has ${columnCount}; every line needs the same columns.`,
-      `line ${l}`,
-    );
+  const layout: RowLayout = {
+    text,
+    separator,
+    trailingSeparator,
+    columnCount,
+    headerNames: headerCells?.map((h) => h.name),
+    firstLine,
+    header,
+    scanner,
   };
-  const cellsOnLine = (start: number) => {
-    const end = lineEnd(text, start);
-    const cells = splitCells(text.slice(start, end), separator);
-    return trailingSeparator && cells.length > 1 && cells[cells.length - 1] === '' ? cells.length - 1 : cells.length;
-  };
-
-  /** Slow path for a cell the fast path did not take: quotes, words, bad characters. Returns its end. */
-  const slowCell = (start: number, l: number, col: number, lineStart: number): [number, number] => {
-    let end = start;
-    let quoted = false;
-    for (; end < length; end++) {
-      const c = text.charCodeAt(end);
-      if (c === QUOTE) quoted = !quoted;
-      else if (!quoted && (c === separator || c === LF || c === CR)) break;
-    }
-    const cell = unquote(text.slice(start, end));
-    if (cell === '') {
-      if (col === 0 && (end >= length || text.charCodeAt(end) === LF || text.charCodeAt(end) === CR) && columnCount > 1) {
-        countError(l, cellsOnLine(lineStart));
-      }
-      throw decodeError(
-        'csv_non_numeric',
-        `Line ${l}, column ${col + 1}${columnLabel(col)} is empty; every cell needs a number (a gap in the recording cannot be filled in).`,
-        where(l, col),
-      );
-    }
-    if (nonFiniteWord.test(cell)) {
-      throw decodeError(
-        'non_finite_sample',
-        `Line ${l}, column ${col + 1}${columnLabel(col)} holds '${cell}'; a recording must hold finite numbers only.`,
-        where(l, col),
-      );
-    }
-    if (fullNumber(scanner, cell)) return [scanner.scan(cell, 0, cell.length), end];
-    const hint =
-      separator !== 44 && /^[+-]?\d*,\d+([eE][+-]?\d+)?$/.test(cell)
-        ? ' It looks like a decimal comma: write numbers with a decimal point (1.25, not 1,25).'
-        : '';
-    throw decodeError(
-      'csv_non_numeric',
-      `Line ${l}, column ${col + 1}${columnLabel(col)} holds '${cell.length > 40 ? `${cell.slice(0, 40)}...` : cell}', which is not a number.${hint}`,
-      where(l, col),
-    );
-  };
-
-  let row = 0;
-  pos = dataStart;
-  line = dataLine;
-  while (pos < length) {
-    const lineStart = pos;
-    let c = text.charCodeAt(pos);
-    while (c === SPACE || (c === TAB && separator !== TAB)) c = text.charCodeAt(++pos);
-    if (c === HASH) {
-      const end = lineEnd(text, pos);
-      readComment(text.slice(pos + 1, end), line, comments);
-      pos = afterBreak(text, end);
-      line++;
-      continue;
-    }
-    if (c === LF || c === CR || pos >= length) {
-      // Blank line.
-      pos = afterBreak(text, pos);
-      line++;
-      continue;
-    }
-    if (row === capacity) {
-      // Capacity is below the line-break bound only when a size limit caps it.
-      checkRecordingSize(dataColumns, row + 1, limits, `line ${line}`);
-    }
-    for (let col = 0; col < columnCount; col++) {
-      while (c === SPACE || (c === TAB && separator !== TAB)) c = text.charCodeAt(++pos);
-      let value = scanner.scan(text, pos, length);
-      let end = scanner.end;
-      if (end !== pos) {
-        c = text.charCodeAt(end);
-        while (c === SPACE || (c === TAB && separator !== TAB)) c = text.charCodeAt(++end);
-      }
-      if (end === pos || !(c === separator || c === LF || c === CR || end >= length)) {
-        [value, end] = slowCell(pos, line, col, lineStart);
-        c = text.charCodeAt(end);
-      }
-      if (value - value !== 0) {
-        throw decodeError(
-          'non_finite_sample',
-          `Line ${line}, column ${col + 1}${columnLabel(col)} holds ${text.slice(pos, end).trim()}, which is out of the range of a double; a recording must hold finite numbers only.`,
-          where(line, col),
-        );
-      }
-      if (col === timeIndex) timeDigitExponents[row] = scanner.lastDigitExponent;
-      columns[col][row] = value;
-      if (col < columnCount - 1) {
-        if (c !== separator) countError(line, cellsOnLine(lineStart));
-        pos = end + 1;
-        c = text.charCodeAt(pos);
-      } else {
-        if (c === separator) {
-          let after = end + 1;
-          let d = text.charCodeAt(after);
-          while (d === SPACE || (d === TAB && separator !== TAB)) d = text.charCodeAt(++after);
-          if (!trailingSeparator || !(d === LF || d === CR || after >= length)) countError(line, cellsOnLine(lineStart));
-          end = after;
-        }
-        pos = end >= length ? length : afterBreak(text, end);
-      }
-    }
-    row++;
-    line++;
-  }
+  const row = readRows(layout, dataStart, dataLine, {
+    columns,
+    capacity,
+    timeIndex,
+    timeDigitExponents,
+    comments,
+    onCapacity: (l) => checkRecordingSize(dataColumns, capacity + 1, limits, `line ${l}`),
+  });
 
   if (row === 0) {
     throw decodeError('no_samples', `The CSV file has ${header ? 'a header but ' : ''}no data lines.`, `line ${dataLine}`);
@@ -418,6 +319,171 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
     })),
     metadata,
   };
+}
+
+/** What the row reader needs to know about the file, also used to word its errors. */
+interface RowLayout {
+  text: string;
+  separator: number;
+  trailingSeparator: boolean;
+  columnCount: number;
+  headerNames: string[] | undefined;
+  firstLine: number;
+  header: boolean;
+  scanner: DecimalScanner;
+}
+
+interface RowSink {
+  columns: Float64Array[];
+  capacity: number;
+  timeIndex: number;
+  timeDigitExponents: Int16Array;
+  comments: Comments;
+  /** Called when a row arrives past `capacity` (only a size limit makes capacity smaller than the rows). */
+  onCapacity: (line: number) => void;
+}
+
+/**
+ * The hot loop: reads every data row from `start` into `sink.columns` and returns the row count.
+ * Everything it touches is a local or a parameter (no captured variables) so that the JIT keeps it in registers;
+ * anything unusual (quotes, words, errors) goes to `slowCell` and the error helpers.
+ */
+function readRows(layout: RowLayout, start: number, startLine: number, sink: RowSink): number {
+  const text = layout.text;
+  const length = text.length;
+  const separator = layout.separator;
+  const skipTabs = separator !== TAB;
+  const columnCount = layout.columnCount;
+  const last = columnCount - 1;
+  const trailingSeparator = layout.trailingSeparator;
+  const scanner = layout.scanner;
+  const columns = sink.columns;
+  const capacity = sink.capacity;
+  const timeIndex = sink.timeIndex;
+  const timeDigitExponents = sink.timeDigitExponents;
+  let row = 0;
+  let pos = start;
+  let line = startLine;
+  while (pos < length) {
+    const lineStart = pos;
+    let c = text.charCodeAt(pos);
+    while (c === SPACE || (c === TAB && skipTabs)) c = text.charCodeAt(++pos);
+    if (c === HASH) {
+      const end = lineEnd(text, pos);
+      readComment(text.slice(pos + 1, end), line, sink.comments);
+      pos = afterBreak(text, end);
+      line++;
+      continue;
+    }
+    if (c === LF || c === CR || pos >= length) {
+      // Blank line.
+      pos = afterBreak(text, pos);
+      line++;
+      continue;
+    }
+    if (row === capacity) sink.onCapacity(line);
+    for (let col = 0; col < columnCount; col++) {
+      while (c === SPACE || (c === TAB && skipTabs)) c = text.charCodeAt(++pos);
+      let value = scanner.scan(text, pos, length);
+      let end = scanner.end;
+      if (end !== pos) {
+        c = text.charCodeAt(end);
+        while (c === SPACE || (c === TAB && skipTabs)) c = text.charCodeAt(++end);
+      }
+      if (end === pos || !(c === separator || c === LF || c === CR || end >= length)) {
+        end = slowCellEnd(layout, pos);
+        value = slowCellValue(layout, pos, end, line, col, lineStart);
+        c = text.charCodeAt(end);
+      }
+      if (value - value !== 0) {
+        throw decodeError(
+          'non_finite_sample',
+          `Line ${line}, column ${col + 1}${columnLabel(layout, col)} holds ${text.slice(pos, end).trim()}, which is out of the range of a double; a recording must hold finite numbers only.`,
+          `line ${line}, column ${col + 1}`,
+        );
+      }
+      if (col === timeIndex) timeDigitExponents[row] = scanner.lastDigitExponent;
+      columns[col][row] = value;
+      if (col < last) {
+        if (c !== separator) columnCountError(layout, line, lineStart);
+        pos = end + 1;
+        c = text.charCodeAt(pos);
+      } else {
+        if (c === separator) {
+          let after = end + 1;
+          let d = text.charCodeAt(after);
+          while (d === SPACE || (d === TAB && skipTabs)) d = text.charCodeAt(++after);
+          if (!trailingSeparator || !(d === LF || d === CR || after >= length)) columnCountError(layout, line, lineStart);
+          end = after;
+        }
+        pos = end >= length ? length : afterBreak(text, end);
+      }
+    }
+    row++;
+    line++;
+  }
+  return row;
+}
+
+function columnLabel(layout: RowLayout, col: number): string {
+  return layout.headerNames ? ` ('${layout.headerNames[col]}')` : '';
+}
+
+function columnCountError(layout: RowLayout, line: number, lineStart: number): never {
+  const { text, separator, trailingSeparator, columnCount, firstLine, header } = layout;
+  const found = splitCells(text.slice(lineStart, lineEnd(text, lineStart)), separator);
+  const cells = trailingSeparator && found.length > 1 && found[found.length - 1] === '' ? found.length - 1 : found.length;
+  throw decodeError(
+    'csv_column_count',
+    `Line ${line} has ${cells} cell${cells === 1 ? '' : 's'} but line ${firstLine}${header ? ' (the header)' : ''} has ${columnCount}; every line needs the same columns.`,
+    `line ${line}`,
+  );
+}
+
+/** End of the cell that starts at `start`, honouring double quotes. */
+function slowCellEnd(layout: RowLayout, start: number): number {
+  const { text, separator } = layout;
+  let end = start;
+  let quoted = false;
+  for (; end < text.length; end++) {
+    const c = text.charCodeAt(end);
+    if (c === QUOTE) quoted = !quoted;
+    else if (!quoted && (c === separator || c === LF || c === CR)) break;
+  }
+  return end;
+}
+
+/** Slow path for a cell the fast path did not take: quotes, padding, words, bad characters. */
+function slowCellValue(layout: RowLayout, start: number, end: number, line: number, col: number, lineStart: number): number {
+  const { text, separator, columnCount, scanner } = layout;
+  const where = `line ${line}, column ${col + 1}`;
+  const cell = unquote(text.slice(start, end));
+  if (cell === '') {
+    const atLineEnd = end >= text.length || text.charCodeAt(end) === LF || text.charCodeAt(end) === CR;
+    if (col === 0 && atLineEnd && columnCount > 1) columnCountError(layout, line, lineStart);
+    throw decodeError(
+      'csv_non_numeric',
+      `Line ${line}, column ${col + 1}${columnLabel(layout, col)} is empty; every cell needs a number (a gap in the recording cannot be filled in).`,
+      where,
+    );
+  }
+  if (nonFiniteWord.test(cell)) {
+    throw decodeError(
+      'non_finite_sample',
+      `Line ${line}, column ${col + 1}${columnLabel(layout, col)} holds '${cell}'; a recording must hold finite numbers only.`,
+      where,
+    );
+  }
+  if (fullNumber(scanner, cell)) return scanner.scan(cell, 0, cell.length);
+  const hint =
+    separator !== 44 && /^[+-]?\d*,\d+([eE][+-]?\d+)?$/.test(cell)
+      ? ' It looks like a decimal comma: write numbers with a decimal point (1.25, not 1,25).'
+      : '';
+  throw decodeError(
+    'csv_non_numeric',
+    `Line ${line}, column ${col + 1}${columnLabel(layout, col)} holds '${cell.length > 40 ? `${cell.slice(0, 40)}...` : cell}', which is not a number.${hint}`,
+    where,
+  );
 }
 
 /** True when the whole cell is one decimal number. */
@@ -502,7 +568,9 @@ function timeColumnRate(
   const n = time.length;
   const k = column.secondsPerUnit;
   // A time written to resolution u is off by at most u/2, so a step between two of them by up to (u1 + u2)/2.
-  const halfUnitS = (row: number) => 0.5 * 10 ** digitExponents[row] * k;
+  const halfUnits = new Float64Array(801);
+  for (let e = -400; e <= 400; e++) halfUnits[e + 400] = 0.5 * 10 ** e * k;
+  const halfUnitS = (row: number) => halfUnits[digitExponents[row] + 400];
   if (n < 2) {
     throw decodeError('csv_time_invalid', `The time column '${column.name}' has ${n} row; two or more are needed to give a sample rate.`);
   }
@@ -517,9 +585,11 @@ function timeColumnRate(
   // Binary rounding of the parsed times adds a few ulps to the printed resolution.
   const largest = Math.max(Math.abs(time[0]), Math.abs(time[n - 1])) * k;
   const fixedToleranceS = csvTimeStepTolerance * stepS + 4 * Number.EPSILON * largest;
+  // A gap skews the mean step, so every step may miss it: report the step that misses it most.
+  let worstRatio = 0;
+  let worst = -1;
   for (let i = 1; i < n; i++) {
     const deltaS = (time[i] - time[i - 1]) * k;
-    const toleranceS = fixedToleranceS + halfUnitS(i) + halfUnitS(i - 1);
     if (!(deltaS > 0)) {
       const l = lineOf(i);
       throw decodeError(
@@ -528,14 +598,21 @@ function timeColumnRate(
         `line ${l}`,
       );
     }
-    if (Math.abs(deltaS - stepS) > toleranceS) {
-      const l = lineOf(i);
-      throw decodeError(
-        'csv_uneven_time',
-        `Time steps are uneven at line ${l}: ${deltaS.toPrecision(6)} s after the previous line where the mean step is ${stepS.toPrecision(6)} s (tolerance ±${toleranceS.toPrecision(3)} s). Dropped samples leave gaps like this; cut the file at the gap.`,
-        `line ${l}`,
-      );
+    const ratio = Math.abs(deltaS - stepS) / (fixedToleranceS + halfUnitS(i) + halfUnitS(i - 1));
+    if (ratio > worstRatio) {
+      worstRatio = ratio;
+      worst = i;
     }
+  }
+  if (worstRatio > 1) {
+    const l = lineOf(worst);
+    const deltaS = (time[worst] - time[worst - 1]) * k;
+    const toleranceS = fixedToleranceS + halfUnitS(worst) + halfUnitS(worst - 1);
+    throw decodeError(
+      'csv_uneven_time',
+      `Time steps are uneven: line ${l} comes ${deltaS.toPrecision(6)} s after the line before it, where the mean step is ${stepS.toPrecision(6)} s (tolerance ±${toleranceS.toPrecision(3)} s). Dropped samples leave gaps like this; cut the file at the gap.`,
+      `line ${l}`,
+    );
   }
   const rateHz = (n - 1) / spanS;
   // Snap to a whole number of hertz when the printed time resolution cannot tell them apart.
