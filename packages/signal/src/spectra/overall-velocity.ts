@@ -60,10 +60,11 @@ export function overallVelocityRms(
   const { bandHz = ISO_VELOCITY_BAND_HZ, lowCutoffHz, ...welch } = options;
   const band = clipBandToNyquist(bandHz, sampleRateHz);
   const psd = welchSpectrum(samples, sampleRateHz, { ...welch, scaling: 'psd', unit });
+  const toMmPerS2 = quantity === 'velocity' ? convertUnit(1, unit, 'mm/s') ** 2 : 1;
   const velocity =
     quantity === 'acceleration'
       ? integrateSpectrum(psd, 'mm/s', lowCutoffHz === undefined ? {} : { lowCutoffHz })
-      : { ...psd, values: psd.values.map((v) => v * convertUnit(1, unit, 'mm/s') ** 2), unit: 'mm/s' };
+      : { ...psd, values: psd.values.map((v) => v * toMmPerS2), unit: 'mm/s' };
   const rms = bandRms(velocity, band);
   return { rms, unit: 'mm/s', bandHz: band, velocityRmsMmPerS: rms };
 }
