@@ -13,3 +13,8 @@ export * from './bearing-excitation.js';
 export * from './shaft-excitation.js';
 export * from './electrical-excitation.js';
 export * from './torsional-model.js';
+export * from './measured-quantity.js';
+export * from './fault-kinds.js';
+export * from './fault-candidates.js';
+export * from './signature.js';
+export * from './campbell.js';
