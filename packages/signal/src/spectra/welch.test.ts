@@ -203,6 +203,35 @@ describe('welchSpectrum', () => {
     expect(welchSpectrum(seededNoise(1, 5000), 100).segmentLength).toBe(4096);
   });
 
+  it('returns a spectrum or throws SignalInputError, nothing else, for any options (property)', () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 0, max: 600 }),
+        fc.oneof(fc.integer({ min: -5, max: 700 }), fc.double(), fc.constant(undefined)),
+        fc.oneof(fc.double(), fc.constant(undefined)),
+        fc.oneof(fc.constantFrom('hann', 'flattop', 'rectangular', 'hamming', 'blackman-harris'), fc.string()),
+        fc.oneof(fc.constantFrom('psd', 'power', 'rms', 'peak'), fc.string()),
+        fc.oneof(fc.double(), fc.constant(1000)),
+        (n, segmentLength, overlapFraction, window, scaling, fs) => {
+          const x = seededNoise(n + 1, n);
+          try {
+            const s = welchSpectrum(x, fs, {
+              segmentLength: segmentLength as number | undefined,
+              overlapFraction: overlapFraction as number | undefined,
+              window: window as WindowName,
+              scaling: scaling as SpectrumScaling,
+            });
+            expect(s.values.length).toBe(Math.floor(s.segmentLength / 2) + 1);
+            for (const v of s.values) expect(Number.isFinite(v) && v >= 0).toBe(true);
+          } catch (e) {
+            expect(e).toBeInstanceOf(SignalInputError);
+          }
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
   it('rejects bad input with typed errors that name the parameter', () => {
     const x = seededNoise(2, 1000);
     const code = (f: () => unknown) => {
