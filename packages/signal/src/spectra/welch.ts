@@ -9,7 +9,7 @@ import {
   type Spectrum,
   type SpectrumScaling,
 } from './spectrum.js';
-import { assertWindowName, windowSamples, type WindowName } from './window.js';
+import { assertWindowName, sharedWindow, type WindowName } from './window.js';
 
 export interface WelchOptions {
   /** Default 'hann'. */
@@ -70,7 +70,7 @@ export function welchSpectrum(samples: Float64Array, sampleRateHz: number, optio
   const noverlap = Math.min(n - 1, Math.round(overlapFraction * n));
   const step = n - noverlap;
   const segments = Math.floor((total - noverlap) / step);
-  const w = windowSamples(window, n);
+  const w = sharedWindow(window, n);
   const bins = Math.floor(n / 2) + 1;
   const acc = new Float64Array(bins);
   if (isPowerOfTwo(n) && n >= 4) accumulatePairs(samples, w, n, step, segments, detrend, averaging, acc);

@@ -39,11 +39,13 @@ export function assertWindowName(name: string, parameter = 'window'): WindowName
 
 const windowCache = new Map<string, Float64Array>();
 
-/**
- * The periodic window of length `length`. Returned arrays for lengths up to 65536 are cached and
- * shared: treat them as read-only.
- */
+/** The periodic window of length `length` (a fresh array). */
 export function windowSamples(name: WindowName, length: number): Float64Array {
+  return sharedWindow(name, length).slice();
+}
+
+/** The same window, cached for lengths up to 65536 and shared between callers: never write to it. */
+export function sharedWindow(name: WindowName, length: number): Float64Array {
   if (!Number.isInteger(length) || length < 1) {
     throw spectraError('invalid_segment_length', `window length (${length}) must be a positive integer`);
   }
