@@ -36,7 +36,12 @@ export interface UploadInput {
   idempotencyKey: string | null;
   recordedAt: Date | null;
   speedRpm: number | null;
+  /** Unit for channels whose file names none (raw floats, float WAV): the point's unit. */
+  defaultUnit: string | null;
 }
+
+/** Units a decoder reports when the file does not say. */
+const UNSTATED_UNITS = new Set(['', 'unknown']);
 
 export interface AnalysisSummary {
   analysisId: string;
@@ -150,7 +155,11 @@ export async function ingestRecording(sql: Sql, models: ModelCache, input: Uploa
   const recording: Recording = {
     sampleRateHz: decoded.sampleRateHz,
     metadata: decoded.metadata,
-    channels: decoded.channels.map((c, i) => ({ name: c.name, unit: c.unit, samples: stored[i]! })),
+    channels: decoded.channels.map((c, i) => ({
+      name: c.name,
+      unit: UNSTATED_UNITS.has(c.unit) && input.defaultUnit ? input.defaultUnit : c.unit,
+      samples: stored[i]!,
+    })),
   };
   const recordedAt = recordedAtOf(input, recording);
   const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);

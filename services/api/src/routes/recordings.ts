@@ -186,7 +186,8 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       ...(q.filename ?? filename ? { filename: q.filename ?? filename } : {}),
       ...(q.sampleRateHz !== undefined ? { sampleRateHz: q.sampleRateHz } : {}),
       ...(q.channels !== undefined ? { channels: q.channels } : {}),
-      ...((q.unit ?? point.unit) ? { unit: q.unit ?? point.unit! } : {}),
+      // an explicit unit overrides the file's; the point's unit only fills in where the file names none
+      ...(q.unit ? { unit: q.unit } : {}),
     };
     let sourceFormat = 'unknown';
     try {
@@ -213,6 +214,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       idempotencyKey,
       recordedAt,
       speedRpm: q.speedRpm ?? null,
+      defaultUnit: point.unit,
     });
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
     return reply.code(result.status).send(result.body);
