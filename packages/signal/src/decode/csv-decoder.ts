@@ -3,7 +3,7 @@ import { DecimalScanner } from './decimal-scanner.js';
 import { decodeError } from './decode-error.js';
 import { checkRecordingSize, resolveDecodeLimits, type DecodeLimits } from './decode-limits.js';
 import { addWarning, channelNames, checkSampleRate } from './recording-parts.js';
-import { inputText } from './text-input.js';
+import { inputBytes } from './text-input.js';
 
 export interface CsvDecodeOptions {
   /** Cell separator; detected from the first line when absent (tab, else semicolon, else comma). */
@@ -76,18 +76,22 @@ function splitCells(line: string, separator: number): string[] {
   return cells;
 }
 
-function lineEnd(text: string, pos: number): number {
-  const lf = text.indexOf('\n', pos);
-  const end = lf < 0 ? text.length : lf;
-  const cr = text.indexOf('\r', pos);
-  return cr >= 0 && cr < end ? cr : end;
+/** End of the line that starts at `pos`: the next LF or CR, or the end of the bytes. */
+function lineEnd(bytes: Uint8Array, pos: number): number {
+  const lf = bytes.indexOf(LF, pos);
+  const end = lf < 0 ? bytes.length : lf;
+  for (let i = pos; i < end; i++) if (bytes[i] === CR) return i;
+  return end;
 }
 
 /** Position after the line break that starts at `end` (CRLF, LF or a lone CR). */
-function afterBreak(text: string, end: number): number {
-  if (text.charCodeAt(end) === CR) return text.charCodeAt(end + 1) === LF ? end + 2 : end + 1;
+function afterBreak(bytes: Uint8Array, end: number): number {
+  if (bytes[end] === CR) return bytes[end + 1] === LF ? end + 2 : end + 1;
   return end + 1;
 }
+
+const utf8 = new TextDecoder('utf-8');
+const text = (bytes: Uint8Array, start: number, end: number) => utf8.decode(bytes.subarray(start, end));
 
 function isBlank(line: string): boolean {
   return line.trim() === '';
@@ -163,8 +167,9 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
     throw decodeError('option_invalid', 'decodeCsv expects the file as a string or a Uint8Array.');
   }
   const limits = resolveDecodeLimits(options.limits);
-  const text = inputText(input);
-  const length = text.length;
+  // The rows are read as bytes: numbers are ASCII, and a 20 MB string would cost as much as parsing it.
+  const bytes = inputBytes(input);
+  const length = bytes.length;
   const comments: Comments = { metadata: {} };
 
   // Leading comment and blank lines, then the first content line (header or data).
@@ -181,8 +186,8 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
     separatorGiven = true;
   }
   while (pos < length) {
-    const end = lineEnd(text, pos);
-    const content = text.slice(pos, end);
+    const end = lineEnd(bytes, pos);
+    const content = text(bytes, pos, end);
     const trimmed = content.trimStart();
     if (trimmed.charCodeAt(0) === HASH) {
       readComment(trimmed.slice(1), line, comments);
@@ -194,13 +199,13 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
       first = content;
       break;
     }
-    pos = afterBreak(text, end);
+    pos = afterBreak(bytes, end);
     line++;
   }
   if (first === undefined) {
     throw decodeError(
       'empty_input',
-      length === 0 || isBlank(text) ? 'The CSV file is empty.' : 'The CSV file holds only comment lines and no data.',
+      line <= 1 || Object.keys(comments.metadata).length === 0 ? 'The CSV file is empty.' : 'The CSV file holds only comment lines and no data.',
     );
   }
   const firstLine = line;
@@ -217,7 +222,7 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
   let dataStart = pos;
   let dataLine = firstLine;
   if (header) {
-    dataStart = afterBreak(text, lineEnd(text, pos));
+    dataStart = afterBreak(bytes, lineEnd(bytes, pos));
     dataLine = firstLine + 1;
   }
 
@@ -232,8 +237,8 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
 
   // Upper bound on the rows: one per line break left. Buffers are sized once, before parsing.
   let breaks = 0;
-  for (let i = text.indexOf('\n', dataStart); i >= 0; i = text.indexOf('\n', i + 1)) breaks++;
-  if (breaks === 0) for (let i = text.indexOf('\r', dataStart); i >= 0; i = text.indexOf('\r', i + 1)) breaks++;
+  for (let i = bytes.indexOf(LF, dataStart); i >= 0; i = bytes.indexOf(LF, i + 1)) breaks++;
+  if (breaks === 0) for (let i = bytes.indexOf(CR, dataStart); i >= 0; i = bytes.indexOf(CR, i + 1)) breaks++;
   const rowBound = breaks + 1;
   const capacity = Math.min(
     rowBound,
@@ -246,7 +251,7 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
   const timeDigitExponents = new Int16Array(timeColumn ? capacity : 0);
 
   const layout: RowLayout = {
-    text,
+    bytes,
     separator,
     trailingSeparator,
     columnCount,
@@ -279,7 +284,7 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
       columns[timeColumn.index].subarray(0, row),
       timeDigitExponents,
       timeColumn,
-      (r) => lineOfRow(text, dataStart, dataLine, r),
+      (r) => lineOfRow(bytes, dataStart, dataLine, r),
     );
     metadata.timeColumn = timeColumn.name;
   }
@@ -323,7 +328,7 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
 
 /** What the row reader needs to know about the file, also used to word its errors. */
 interface RowLayout {
-  text: string;
+  bytes: Uint8Array;
   separator: number;
   trailingSeparator: boolean;
   columnCount: number;
@@ -349,8 +354,8 @@ interface RowSink {
  * anything unusual (quotes, words, errors) goes to `slowCell` and the error helpers.
  */
 function readRows(layout: RowLayout, start: number, startLine: number, sink: RowSink): number {
-  const text = layout.text;
-  const length = text.length;
+  const bytes = layout.bytes;
+  const length = bytes.length;
   const separator = layout.separator;
   const skipTabs = separator !== TAB;
   const columnCount = layout.columnCount;
@@ -366,39 +371,39 @@ function readRows(layout: RowLayout, start: number, startLine: number, sink: Row
   let line = startLine;
   while (pos < length) {
     const lineStart = pos;
-    let c = text.charCodeAt(pos);
-    while (c === SPACE || (c === TAB && skipTabs)) c = text.charCodeAt(++pos);
+    let c = bytes[pos];
+    while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++pos];
     if (c === HASH) {
-      const end = lineEnd(text, pos);
-      readComment(text.slice(pos + 1, end), line, sink.comments);
-      pos = afterBreak(text, end);
+      const end = lineEnd(bytes, pos);
+      readComment(text(bytes, pos + 1, end), line, sink.comments);
+      pos = afterBreak(bytes, end);
       line++;
       continue;
     }
     if (c === LF || c === CR || pos >= length) {
       // Blank line.
-      pos = afterBreak(text, pos);
+      pos = afterBreak(bytes, pos);
       line++;
       continue;
     }
     if (row === capacity) sink.onCapacity(line);
     for (let col = 0; col < columnCount; col++) {
-      while (c === SPACE || (c === TAB && skipTabs)) c = text.charCodeAt(++pos);
-      let value = scanner.scan(text, pos, length);
+      while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++pos];
+      let value = scanner.scan(bytes, pos, length);
       let end = scanner.end;
       if (end !== pos) {
-        c = text.charCodeAt(end);
-        while (c === SPACE || (c === TAB && skipTabs)) c = text.charCodeAt(++end);
+        c = bytes[end];
+        while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++end];
       }
       if (end === pos || !(c === separator || c === LF || c === CR || end >= length)) {
         end = slowCellEnd(layout, pos);
         value = slowCellValue(layout, pos, end, line, col, lineStart);
-        c = text.charCodeAt(end);
+        c = bytes[end];
       }
       if (value - value !== 0) {
         throw decodeError(
           'non_finite_sample',
-          `Line ${line}, column ${col + 1}${columnLabel(layout, col)} holds ${text.slice(pos, end).trim()}, which is out of the range of a double; a recording must hold finite numbers only.`,
+          `Line ${line}, column ${col + 1}${columnLabel(layout, col)} holds ${text(bytes, pos, end).trim()}, which is out of the range of a double; a recording must hold finite numbers only.`,
           `line ${line}, column ${col + 1}`,
         );
       }
@@ -407,16 +412,16 @@ function readRows(layout: RowLayout, start: number, startLine: number, sink: Row
       if (col < last) {
         if (c !== separator) columnCountError(layout, line, lineStart);
         pos = end + 1;
-        c = text.charCodeAt(pos);
+        c = bytes[pos];
       } else {
         if (c === separator) {
           let after = end + 1;
-          let d = text.charCodeAt(after);
-          while (d === SPACE || (d === TAB && skipTabs)) d = text.charCodeAt(++after);
+          let d = bytes[after];
+          while (d === SPACE || (d === TAB && skipTabs)) d = bytes[++after];
           if (!trailingSeparator || !(d === LF || d === CR || after >= length)) columnCountError(layout, line, lineStart);
           end = after;
         }
-        pos = end >= length ? length : afterBreak(text, end);
+        pos = end >= length ? length : afterBreak(bytes, end);
       }
     }
     row++;
@@ -430,8 +435,8 @@ function columnLabel(layout: RowLayout, col: number): string {
 }
 
 function columnCountError(layout: RowLayout, line: number, lineStart: number): never {
-  const { text, separator, trailingSeparator, columnCount, firstLine, header } = layout;
-  const found = splitCells(text.slice(lineStart, lineEnd(text, lineStart)), separator);
+  const { bytes, separator, trailingSeparator, columnCount, firstLine, header } = layout;
+  const found = splitCells(text(bytes, lineStart, lineEnd(bytes, lineStart)), separator);
   const cells = trailingSeparator && found.length > 1 && found[found.length - 1] === '' ? found.length - 1 : found.length;
   throw decodeError(
     'csv_column_count',
@@ -442,11 +447,11 @@ function columnCountError(layout: RowLayout, line: number, lineStart: number): n
 
 /** End of the cell that starts at `start`, honouring double quotes. */
 function slowCellEnd(layout: RowLayout, start: number): number {
-  const { text, separator } = layout;
+  const { bytes, separator } = layout;
   let end = start;
   let quoted = false;
-  for (; end < text.length; end++) {
-    const c = text.charCodeAt(end);
+  for (; end < bytes.length; end++) {
+    const c = bytes[end];
     if (c === QUOTE) quoted = !quoted;
     else if (!quoted && (c === separator || c === LF || c === CR)) break;
   }
@@ -455,11 +460,11 @@ function slowCellEnd(layout: RowLayout, start: number): number {
 
 /** Slow path for a cell the fast path did not take: quotes, padding, words, bad characters. */
 function slowCellValue(layout: RowLayout, start: number, end: number, line: number, col: number, lineStart: number): number {
-  const { text, separator, columnCount, scanner } = layout;
+  const { bytes, separator, columnCount, scanner } = layout;
   const where = `line ${line}, column ${col + 1}`;
-  const cell = unquote(text.slice(start, end));
+  const cell = unquote(text(bytes, start, end));
   if (cell === '') {
-    const atLineEnd = end >= text.length || text.charCodeAt(end) === LF || text.charCodeAt(end) === CR;
+    const atLineEnd = end >= bytes.length || bytes[end] === LF || bytes[end] === CR;
     if (col === 0 && atLineEnd && columnCount > 1) columnCountError(layout, line, lineStart);
     throw decodeError(
       'csv_non_numeric',
@@ -474,7 +479,7 @@ function slowCellValue(layout: RowLayout, start: number, end: number, line: numb
       where,
     );
   }
-  if (fullNumber(scanner, cell)) return scanner.scan(cell, 0, cell.length);
+  if (fullNumber(scanner, cell)) return scanner.scan(asciiBytes(cell), 0, cell.length);
   const hint =
     separator !== 44 && /^[+-]?\d*,\d+([eE][+-]?\d+)?$/.test(cell)
       ? ' It looks like a decimal comma: write numbers with a decimal point (1.25, not 1,25).'
@@ -489,8 +494,14 @@ function slowCellValue(layout: RowLayout, start: number, end: number, line: numb
 /** True when the whole cell is one decimal number. */
 function fullNumber(scanner: DecimalScanner, cell: string): boolean {
   if (cell === '') return false;
-  scanner.scan(cell, 0, cell.length);
-  return scanner.end === cell.length;
+  const bytes = asciiBytes(cell);
+  scanner.scan(bytes, 0, bytes.length);
+  return scanner.end === bytes.length;
+}
+
+const encoder = new TextEncoder();
+function asciiBytes(cell: string): Uint8Array {
+  return encoder.encode(cell);
 }
 
 interface TimeColumn {
@@ -545,15 +556,16 @@ function resolveTimeColumn(
 }
 
 /** The line number of data row `row`, found again only when an error needs it. */
-function lineOfRow(text: string, start: number, firstLine: number, row: number): number {
+function lineOfRow(bytes: Uint8Array, start: number, firstLine: number, row: number): number {
   let pos = start;
   let line = firstLine;
   let seen = -1;
-  while (pos < text.length) {
-    const end = lineEnd(text, pos);
-    const content = text.slice(pos, end).trim();
-    if (content !== '' && content.charCodeAt(0) !== HASH && ++seen === row) return line;
-    pos = afterBreak(text, end);
+  while (pos < bytes.length) {
+    const end = lineEnd(bytes, pos);
+    let first = pos;
+    while (first < end && (bytes[first] === SPACE || bytes[first] === TAB)) first++;
+    if (first < end && bytes[first] !== HASH && ++seen === row) return line;
+    pos = afterBreak(bytes, end);
     line++;
   }
   return line;

@@ -5,8 +5,9 @@ import { DecimalScanner } from './decimal-scanner.js';
 // The reference is ECMAScript's Number(string) (ECMA-262, StringToNumber), which rounds decimal strings
 // correctly; the scanner must give the identical double (Object.is, so -0 counts) for every string it accepts.
 const scanner = new DecimalScanner();
+const ascii = (text: string) => new TextEncoder().encode(text);
 function scanAll(text: string): number | undefined {
-  const value = scanner.scan(text, 0, text.length);
+  const value = scanner.scan(ascii(text), 0, text.length);
   return scanner.end > 0 && scanner.end === text.length ? value : undefined;
 }
 
@@ -22,14 +23,14 @@ describe('DecimalScanner.scan', () => {
 
   it('stops at the first character after the number', () => {
     const text = ' 12.5;3';
-    expect(scanner.scan(text, 1, text.length)).toBe(12.5);
+    expect(scanner.scan(ascii(text), 1, text.length)).toBe(12.5);
     expect(scanner.end).toBe(5);
-    expect(scanner.scan('1.5g', 0, 4)).toBe(1.5);
+    expect(scanner.scan(ascii('1.5g'), 0, 4)).toBe(1.5);
     expect(scanner.end).toBe(3);
   });
 
   it('respects the limit it is given', () => {
-    expect(scanner.scan('123456', 0, 3)).toBe(123);
+    expect(scanner.scan(ascii('123456'), 0, 3)).toBe(123);
     expect(scanner.end).toBe(3);
   });
 
