@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { loadMachineModel, type MachineModelInput } from '@kinespec/kinematics';
 import { describe, expect, it } from 'vitest';
 import { SignatureInputError } from './errors.js';
@@ -211,5 +211,22 @@ describe('predictSignature on the example machine', () => {
     const s = predictSignature(model, { fault: 'gear-missing-tooth', component: 'pinion-1' });
     expect(s.naturalFrequenciesHz).toEqual(ref.naturalFrequenciesHz.slice(1).map((f) => expect.closeTo(f, 6)));
     expect(s.modeShapes).toHaveLength(3);
+  });
+});
+
+describe('predictSignature on every demo machine', () => {
+  const dirs = ['../../../fixtures/machines/', '../../../fixtures/signatures/demo/'];
+  const files = dirs.flatMap((d) => readdirSync(new URL(d, import.meta.url)).filter((f) => f.endsWith('.json')).map((f) => new URL(d + f, import.meta.url)));
+
+  it('predicts finite, positive-frequency lines for every fault candidate of every machine', () => {
+    expect(files.length).toBeGreaterThan(1);
+    for (const file of files) {
+      const model = loadMachineModel(readFileSync(file, 'utf8'));
+      for (const c of faultCandidates(model)) {
+        const s = predictSignature(model, { fault: c.fault, component: c.component });
+        expect(s.lines.length, `${model.id} ${c.fault} ${c.component}`).toBeGreaterThan(0);
+        expect(s.lines.every((l) => l.frequencyHz > 0 && Number.isFinite(l.amplitude) && Number.isFinite(l.phaseRad))).toBe(true);
+      }
+    }
   });
 });

@@ -55,6 +55,18 @@ describe('signature verb', () => {
     expect(body.lines[0].frequencyHz).toBeCloseTo(((1480 * 0.72 * 0.99 * (18 / 67) * (23 / 79)) / 60) * 4.38, 9);
   });
 
+  it('works on the signatures demo machine: velocity point, flexible coupling and belt', async () => {
+    const demo = new URL('../../../../fixtures/signatures/demo/brackwater-vacuum-pump-3.json', import.meta.url).pathname;
+    const io = capture();
+    expect(await main(['signature', demo, '--fault', 'gear-broken-tooth', '--component', 'pinion', '--harmonics', '30', '--json'], io)).toBe(0);
+    const body = JSON.parse(io.stdout.join('\n'));
+    expect(body.unit).toBe('mm/s');
+    expect(body.naturalFrequenciesHz).toHaveLength(3);
+    // 988 rpm / 60 = 16.4667 Hz; 21 teeth: 1..30 minus the mesh order 21
+    expect(body.lines).toHaveLength(29);
+    expect(body.lines[6].frequencyHz).toBeCloseTo(7 * 988 / 60, 9);
+  });
+
   it('reads a YAML copy of a model from a temp dir', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'kinespec-signature-'));
     const model = JSON.parse(readFileSync(example, 'utf8'));
