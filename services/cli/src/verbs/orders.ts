@@ -1,12 +1,391 @@
+import { readFileSync } from 'node:fs';
+import { basename } from 'node:path';
+import { parseArgs } from 'node:util';
+import { MachineModelError, shaftRatios, type MachineModel } from '@kinespec/kinematics';
+import {
+  SignalInputError,
+  detectPulses,
+  findPeaks,
+  gearIndicators,
+  isMotionUnit,
+  normalizeUnit,
+  orderSpectrum,
+  resampleToAngle,
+  scaleShaftAngle,
+  shaftAngleFromPulses,
+  shaftSynchronousAverage,
+  speedFromPulses,
+  type AngleInterpolation,
+  decodeRecording,
+  type Channel,
+  type Recording,
+  type SpectrumScaling,
+} from '@kinespec/signal';
 import { CliError } from '../cli-error.js';
+import { loadMachineFile } from '../machine-file.js';
 import type { Verb } from '../verb.js';
+import { selectChannel } from './spectrum.js';
 
-// Placeholder until its issue lands; replaced by the real verb.
+const USAGE =
+  'kinespec orders <recording> --machine <machine.json> --tach-channel N|name [--channel N|name] [--shaft id] ' +
+  '[--pulses-per-rev P] [--pulse-shaft id] [--max-order K] [--samples-per-rev S] [--scaling peak|rms|psd] ' +
+  '[--interpolation sinc|cubic|linear] [--tsa] [--sample-rate Hz] [--unit g] [--json]';
+
+const SCALINGS = ['peak', 'rms', 'psd'] as const;
+const INTERPOLATIONS = ['sinc', 'cubic', 'linear'] as const;
+/** Mesh harmonics wanted in each gear's synchronous average (for FM0 and the regular signal). */
+const TSA_MESH_HARMONICS = 3;
+
+export interface OrdersSettings {
+  machinePath: string;
+  tachChannel?: string;
+  channel?: string;
+  shaft?: string;
+  pulseShaft?: string;
+  pulsesPerRev?: number;
+  maxOrder?: number;
+  samplesPerRev?: number;
+  scaling: SpectrumScaling;
+  interpolation: AngleInterpolation;
+  tsa: boolean;
+}
+
+export interface GearTsaReport {
+  gear: string;
+  mesh: string;
+  shaft: string;
+  teeth: number;
+  /** Revolutions of the gear averaged and the expected noise amplitude factor 1/sqrt(N). */
+  averages: number;
+  noiseReductionFactor: number;
+  fm0: number | null;
+  fm4: number | null;
+  na4: number | null;
+  rms: number | null;
+  meshHarmonicAmplitudes: number[];
+  note?: string;
+}
+
+export interface OrdersReport {
+  file: string;
+  channel: string;
+  unit: string;
+  tachChannel: string;
+  pulseShaft: string;
+  pulsesPerRev: number;
+  /** Shaft whose orders are reported. */
+  shaft: string;
+  /** Speed of `shaft`, smoothed over one revolution of the pulse shaft. */
+  speedRpm: { min: number; mean: number; max: number };
+  pulses: { count: number; missing: number; extra: number; smoothing: string };
+  samplesPerRev: number;
+  revolutions: number;
+  maxOrder: number;
+  orderResolution: number;
+  interpolation: AngleInterpolation;
+  antiAliasHz: [number, number] | null;
+  scaling: SpectrumScaling;
+  valueUnit: string;
+  peaks: { order: number; amplitude: number; prominenceDb: number }[];
+  tsa?: GearTsaReport[];
+  notes: string[];
+  orders: number[];
+  values: number[];
+}
+
+function oneOf<T extends string>(flag: string, value: string | undefined, allowed: readonly T[], fallback: T): T {
+  if (value === undefined) return fallback;
+  if (!(allowed as readonly string[]).includes(value)) throw new CliError(`--${flag} must be one of ${allowed.join(', ')} (got '${value}')`);
+  return value as T;
+}
+
+function numberFlag(flag: string, text: string | undefined, check: (v: number) => boolean, rule: string): number | undefined {
+  if (text === undefined) return undefined;
+  const v = Number(text);
+  if (text.trim() === '' || !Number.isFinite(v) || !check(v)) throw new CliError(`--${flag} must be ${rule} (got '${text}')`);
+  return v;
+}
+
+function parseSettings(args: string[]): { file: string; settings: OrdersSettings; json: boolean; sampleRateHz?: number; unit?: string } {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args,
+      allowPositionals: true,
+      strict: true,
+      options: {
+        machine: { type: 'string' },
+        'tach-channel': { type: 'string' },
+        channel: { type: 'string' },
+        shaft: { type: 'string' },
+        'pulse-shaft': { type: 'string' },
+        'pulses-per-rev': { type: 'string' },
+        'max-order': { type: 'string' },
+        'samples-per-rev': { type: 'string' },
+        scaling: { type: 'string' },
+        interpolation: { type: 'string' },
+        tsa: { type: 'boolean' },
+        'sample-rate': { type: 'string' },
+        unit: { type: 'string' },
+        json: { type: 'boolean' },
+      },
+    });
+  } catch (err) {
+    throw new CliError(`${(err as Error).message.split('\n')[0]} (usage: ${USAGE})`);
+  }
+  const { values: v, positionals } = parsed;
+  if (positionals.length !== 1) {
+    throw new CliError(positionals.length === 0 ? `a recording file is required (usage: ${USAGE})` : `one recording file at a time (got ${positionals.length})`);
+  }
+  if (v.machine === undefined) throw new CliError(`--machine <machine.json> is required: the orders are those of its shafts (usage: ${USAGE})`);
+  const settings: OrdersSettings = {
+    machinePath: v.machine,
+    tachChannel: v['tach-channel'],
+    channel: v.channel,
+    shaft: v.shaft,
+    pulseShaft: v['pulse-shaft'],
+    pulsesPerRev: numberFlag('pulses-per-rev', v['pulses-per-rev'], (x) => Number.isInteger(x) && x >= 1, 'a whole number >= 1'),
+    maxOrder: numberFlag('max-order', v['max-order'], (x) => x > 0, 'an order > 0'),
+    samplesPerRev: numberFlag('samples-per-rev', v['samples-per-rev'], (x) => Number.isInteger(x) && x >= 8, 'a whole number >= 8'),
+    scaling: oneOf('scaling', v.scaling, SCALINGS, 'peak'),
+    interpolation: oneOf('interpolation', v.interpolation, INTERPOLATIONS, 'sinc'),
+    tsa: v.tsa === true,
+  };
+  const sampleRateHz = numberFlag('sample-rate', v['sample-rate'], (x) => x > 0, 'a sample rate in Hz > 0');
+  if (v.unit !== undefined && v.unit.trim() === '') throw new CliError('--unit must name a unit, e.g. g, m/s^2, mm/s');
+  return { file: positionals[0]!, settings, json: v.json === true, sampleRateHz, unit: v.unit };
+}
+
+/**
+ * The pulse channel: --tach-channel (a name or a 1-based number), else the channel the recording's
+ * metadata names (tachChannel / encoderChannel, 0-based as the simulator and loggers write it), else a
+ * channel named after a tach or encoder point of the model.
+ */
+function pulseChannelOf(recording: Recording, model: MachineModel, selector: string | undefined): Channel {
+  if (selector !== undefined) {
+    try {
+      return selectChannel(recording, selector);
+    } catch (err) {
+      throw new CliError(`--tach-${(err as Error).message.replace(/^--/, '')}`);
+    }
+  }
+  for (const key of ['tachChannel', 'encoderChannel']) {
+    const index = Number(recording.metadata[key]);
+    if (recording.metadata[key] !== undefined && Number.isInteger(index) && recording.channels[index]) return recording.channels[index];
+  }
+  const named = recording.channels.find((c) => model.points.some((p) => p.id === c.name && (p.quantity === 'tach' || p.quantity === 'encoder')));
+  if (named) return named;
+  throw new CliError('no tach or encoder channel found: give --tach-channel N (1-based) or the channel name');
+}
+
+/** Pulses per revolution and shaft of the pulse channel: flags, then the model's point of that name, then metadata, then 1 per rev of the reference shaft. */
+function pulseGeometry(recording: Recording, model: MachineModel, channel: Channel, settings: OrdersSettings): { ppr: number; shaft: string } {
+  const point = model.points.find((p) => p.id === channel.name && (p.quantity === 'tach' || p.quantity === 'encoder'));
+  const index = recording.channels.indexOf(channel);
+  const meta = (key: 'tach' | 'encoder', field: 'PulsesPerRev' | 'Shaft') =>
+    recording.metadata[`${key}Channel`] === String(index) ? recording.metadata[`${key}${field}`] : undefined;
+  const metaPpr = Number(meta('tach', 'PulsesPerRev') ?? meta('encoder', 'PulsesPerRev'));
+  const ppr = settings.pulsesPerRev ?? point?.pulsesPerRev ?? (Number.isInteger(metaPpr) && metaPpr >= 1 ? metaPpr : 1);
+  const shaft = settings.pulseShaft ?? point?.shaft ?? meta('tach', 'Shaft') ?? meta('encoder', 'Shaft') ?? model.speed.shaft;
+  return { ppr, shaft };
+}
+
+function ratioOf(ratios: Map<string, number>, shaft: string, flag: string): number {
+  const r = ratios.get(shaft);
+  if (r === undefined) throw new CliError(`${flag} '${shaft}' is not a shaft of the machine (shafts: ${[...ratios.keys()].join(', ')})`);
+  return r;
+}
+
+/**
+ * Reads and decodes the recording. The file's bytes are handed over as a plain Uint8Array view, not the
+ * Node Buffer readFileSync returns: Buffer.slice shares memory where Uint8Array.slice copies, and the WAV
+ * decoder copies unaligned float data with slice.
+ */
+function loadRecording(path: string, hint: { sampleRateHz?: number; unit?: string }): Recording {
+  let buffer: Buffer;
+  try {
+    buffer = readFileSync(path);
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a directory' : code === 'EACCES' ? 'permission denied' : String(code ?? err);
+    throw new CliError(`cannot read '${path}': ${why}`);
+  }
+  return decodeRecording(new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength), { filename: basename(path), ...hint });
+}
+
+/** The whole analysis behind the verb: recording and model in, the report out. */
+export function analyseOrders(recording: Recording, model: MachineModel, file: string, settings: OrdersSettings): OrdersReport {
+  const notes: string[] = [];
+  const fs = recording.sampleRateHz;
+  const tach = pulseChannelOf(recording, model, settings.tachChannel);
+  const vibration = settings.channel !== undefined ? selectChannel(recording, settings.channel) : recording.channels.find((c) => c !== tach);
+  if (!vibration) throw new CliError('the recording has only the pulse channel; a vibration channel is needed beside it');
+  if (vibration === tach) throw new CliError('--channel and --tach-channel name the same channel');
+  const unit = isMotionUnit(vibration.unit) ? normalizeUnit(vibration.unit) : vibration.unit;
+
+  let ratios: Map<string, number>;
+  try {
+    ratios = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
+  } catch (err) {
+    if (err instanceof MachineModelError) throw new CliError(err.message);
+    throw err;
+  }
+  const { ppr, shaft: pulseShaft } = pulseGeometry(recording, model, tach, settings);
+  const shaft = settings.shaft ?? model.speed.shaft;
+  const pulseRatio = ratioOf(ratios, pulseShaft, 'the pulse shaft');
+  const ratio = ratioOf(ratios, shaft, '--shaft') / pulseRatio;
+
+  const edges = detectPulses(tach.samples, fs);
+  const pulses = speedFromPulses(edges.edgeTimesS, { pulsesPerRev: ppr });
+  if (pulses.missingPulses > 0 || pulses.extraPulses > 0) {
+    notes.push(`${pulses.missingPulses} missing and ${pulses.extraPulses} extra pulses found and corrected`);
+  }
+  const angle = shaftAngleFromPulses(pulses, vibration.samples.length, fs);
+  const angleSignal = resampleToAngle(vibration.samples, fs, scaleShaftAngle(angle, ratio), {
+    maxOrder: settings.maxOrder,
+    samplesPerRev: settings.samplesPerRev,
+    interpolation: settings.interpolation,
+  });
+  const spectrum = orderSpectrum(angleSignal, { scaling: settings.scaling, unit });
+  const keep = spectrum.orders.findIndex((o) => o > angleSignal.maxOrder + 1e-9);
+  const last = keep < 0 ? spectrum.orders.length : keep;
+  const peaks = findPeaks(spectrum.spectrum, { count: 10, bandHz: [spectrum.orderResolution / 2, angleSignal.maxOrder] }).map((p) => ({
+    order: p.frequencyHz,
+    amplitude: p.amplitude,
+    prominenceDb: p.prominenceDb,
+  }));
+
+  const report: OrdersReport = {
+    file,
+    channel: vibration.name,
+    unit,
+    tachChannel: tach.name,
+    pulseShaft,
+    pulsesPerRev: ppr,
+    shaft,
+    speedRpm: { min: 60 * pulses.minHz * ratio, mean: 60 * pulses.meanSpeedHz * ratio, max: 60 * pulses.maxHz * ratio },
+    pulses: { count: pulses.pulseTimesS.length, missing: pulses.missingPulses, extra: pulses.extraPulses, smoothing: pulses.instantaneous.smoothing },
+    samplesPerRev: angleSignal.samplesPerRev,
+    revolutions: angleSignal.revolutions,
+    maxOrder: angleSignal.maxOrder,
+    orderResolution: spectrum.orderResolution,
+    interpolation: angleSignal.interpolation,
+    antiAliasHz: angleSignal.antiAliasHz,
+    scaling: spectrum.scaling,
+    valueUnit: spectrum.valueUnit,
+    peaks,
+    notes,
+    orders: Array.from(spectrum.orders.subarray(0, last)),
+    values: Array.from(spectrum.values.subarray(0, last)),
+  };
+  if (settings.tsa) report.tsa = gearTsa(vibration, fs, angle, model, ratios, pulseRatio, notes);
+  return report;
+}
+
+/** Synchronous average and FM0 / FM4 / NA4 for every gear of the model, each over its own shaft's revolutions. */
+function gearTsa(
+  vibration: Channel,
+  fs: number,
+  angle: ReturnType<typeof shaftAngleFromPulses>,
+  model: MachineModel,
+  ratios: Map<string, number>,
+  pulseRatio: number,
+  notes: string[],
+): GearTsaReport[] {
+  const out: GearTsaReport[] = [];
+  for (const mesh of model.gearMeshes) {
+    for (const gear of [mesh.driver, mesh.driven]) {
+      const ratio = ratios.get(gear.shaft)! / pulseRatio;
+      const base = { gear: gear.gear, mesh: mesh.id, shaft: gear.shaft, teeth: gear.teeth };
+      let maxSpeedHz = 0;
+      for (let i = angle.firstSample; i <= angle.lastSample; i++) maxSpeedHz = Math.max(maxSpeedHz, angle.speedHz[i]! * ratio);
+      const maxOrder = Math.min((TSA_MESH_HARMONICS + 0.5) * gear.teeth, (0.4 * fs) / maxSpeedHz);
+      try {
+        const tsa = shaftSynchronousAverage(vibration.samples, fs, angle, ratio, { maxOrder });
+        const g = gearIndicators(tsa.average, { teeth: gear.teeth, maxOrder: tsa.angleSignal.maxOrder });
+        out.push({
+          ...base,
+          averages: tsa.averages,
+          noiseReductionFactor: tsa.noiseReductionFactor,
+          fm0: g.fm0,
+          fm4: g.fm4,
+          na4: g.na4,
+          rms: g.rms,
+          meshHarmonicAmplitudes: g.meshHarmonicAmplitudes,
+        });
+      } catch (err) {
+        if (!(err instanceof SignalInputError)) throw err;
+        const note = `gear '${gear.gear}': ${err.message}`;
+        notes.push(note);
+        out.push({ ...base, averages: 0, noiseReductionFactor: 1, fm0: null, fm4: null, na4: null, rms: null, meshHarmonicAmplitudes: [], note: err.message });
+      }
+    }
+  }
+  return out;
+}
+
+function sig(x: number | null, digits = 4): string {
+  if (x === null || Number.isNaN(x)) return '-';
+  if (x === 0) return '0';
+  const a = Math.abs(x);
+  return a >= 1e-3 && a < 1e6 ? String(Number(x.toPrecision(digits))) : x.toExponential(digits - 1);
+}
+
+function summary(r: OrdersReport): string {
+  const lines: string[] = [];
+  lines.push(`${r.file}, channel '${r.channel}' (${r.unit || 'no unit'}); pulses from '${r.tachChannel}', ${r.pulsesPerRev} per rev of shaft '${r.pulseShaft}'`);
+  lines.push(
+    `speed of '${r.shaft}': min ${sig(r.speedRpm.min, 5)}, mean ${sig(r.speedRpm.mean, 5)}, max ${sig(r.speedRpm.max, 5)} rpm ` +
+      `(${r.pulses.count} pulses, ${r.pulses.missing} missing, ${r.pulses.extra} extra)`,
+  );
+  lines.push(
+    `order tracking: ${r.revolutions} revolutions at ${r.samplesPerRev} samples/rev (${r.interpolation}), orders up to ${sig(r.maxOrder)}, ` +
+      `resolution ${sig(r.orderResolution)} order`,
+  );
+  const label = r.scaling === 'psd' ? r.valueUnit : `${r.unit} ${r.scaling}`;
+  if (r.peaks.length === 0) lines.push('no order stands 6 dB above the noise floor');
+  else {
+    lines.push(`strongest orders (${label}):`);
+    for (const p of r.peaks.slice(0, 8)) lines.push(`  order ${sig(p.order, 5).padStart(9)}  ${sig(p.amplitude)}`);
+  }
+  if (r.tsa) {
+    lines.push('synchronous average per gear (FM4 and NA4 near 3 for a healthy gear):');
+    lines.push('  gear                 shaft            teeth  averages   FM0     FM4     NA4');
+    for (const g of r.tsa) {
+      lines.push(
+        `  ${g.gear.padEnd(20)} ${g.shaft.padEnd(16)} ${String(g.teeth).padStart(5)} ${String(g.averages).padStart(9)} ` +
+          `${sig(g.fm0, 3).padStart(7)} ${sig(g.fm4, 3).padStart(7)} ${sig(g.na4, 3).padStart(7)}`,
+      );
+    }
+  }
+  for (const note of r.notes) lines.push(`note: ${note}`);
+  return lines.join('\n');
+}
+
 export const ordersVerb: Verb = {
   name: 'orders',
-  summary: 'orders (not built yet)',
-  usage: 'kinespec orders',
-  async run() {
-    throw new CliError('this verb is not built yet');
+  summary:
+    'order spectrum of a vibration channel resampled to shaft angle from a tach or encoder channel (computed order tracking), ' +
+    'with the speed profile and, with --tsa, the synchronous average of every gear and its FM0, FM4 and NA4.\n' +
+    'Orders are of --shaft (default the model\'s reference shaft); the pulse channel reads one pulse per rev of the reference ' +
+    'shaft unless --pulses-per-rev / --pulse-shaft or the model\'s tach or encoder point of that name say otherwise. ' +
+    'Channels are given by name or 1-based number. Default scaling peak.',
+  usage: USAGE,
+  async run(args, io) {
+    const { file, settings, json, sampleRateHz, unit } = parseSettings(args);
+    const model = loadMachineFile(settings.machinePath, io);
+    const hint: { sampleRateHz?: number; unit?: string } = {};
+    if (sampleRateHz !== undefined) hint.sampleRateHz = sampleRateHz;
+    if (unit !== undefined) hint.unit = unit;
+    let report: OrdersReport;
+    try {
+      const recording = loadRecording(file, hint);
+      report = analyseOrders(recording, model, basename(file), settings);
+    } catch (err) {
+      if (err instanceof SignalInputError) throw new CliError(`${basename(file)}: ${err.message}`);
+      throw err;
+    }
+    io.out(json ? JSON.stringify(report) : summary(report));
+    return 0;
   },
 };
