@@ -103,6 +103,20 @@ function resolveImpact(impact: ImpactOptions | undefined, defectOrder: number, s
  */
 export function loadZoneSeries(exponent: number, harmonics: number): FourierSeries {
   checkPositive('loadZoneExponent', exponent);
+  checkWhole('harmonics', harmonics, 0, 10_000);
+  // the sampled series costs a 65536-point FFT; a handful of exponents recur, so keep them (pure, frozen)
+  const key = `${exponent}:${harmonics}`;
+  const hit = loadZoneCache.get(key);
+  if (hit) return hit;
+  const series = Object.freeze(computeLoadZone(exponent, harmonics));
+  if (loadZoneCache.size >= 32) loadZoneCache.delete(loadZoneCache.keys().next().value!);
+  loadZoneCache.set(key, series);
+  return series;
+}
+
+const loadZoneCache = new Map<string, FourierSeries>();
+
+function computeLoadZone(exponent: number, harmonics: number): FourierSeries {
   if (exponent === 1) {
     return fourierSeries([{ kind: 'cosine', startFraction: -0.25, endFraction: 0.25, amplitude: 1, cyclesPerPeriod: 1, phaseRad: 0 }], harmonics);
   }
