@@ -3,7 +3,8 @@ import { loadMachineModel, type MachineModelInput } from '@kinespec/kinematics';
 import { describe, expect, it } from 'vitest';
 import { SignatureInputError } from './errors.js';
 import { faultCandidates } from './fault-candidates.js';
-import { predictSignature, type Signature } from './signature.js';
+import { faultExcitation, predictSignature, type Signature } from './signature.js';
+import { partialSum } from './fourier-series.js';
 
 const G_N = 9.80665; // m/s², 3rd CGPM (1901); check-values.md §8
 // k = Gπd⁴/(32L) for d = 50 mm, L = 1 m, G = 79.3 GPa (Shigley Eq. 4-5, from memory) = 48,657.9 N·m/rad (check-values.md §5);
@@ -228,5 +229,16 @@ describe('predictSignature on every demo machine', () => {
         expect(s.lines.every((l) => l.frequencyHz > 0 && Number.isFinite(l.amplitude) && Number.isFinite(l.phaseRad))).toBe(true);
       }
     }
+  });
+});
+
+describe('faultExcitation', () => {
+  it('gives the template with its series, whose partial sums converge to the torque in the gap and outside it', () => {
+    // Dirichlet: at points of continuity the partial sums converge to the function (missing tooth: 0 in the gap, 1 elsewhere).
+    const ex = faultExcitation(load(gearedModel()), { fault: 'gear-missing-tooth', component: 'pinion', harmonics: 4000 });
+    expect(ex.series!.terms).toHaveLength(4000);
+    expect(partialSum(ex.series!, 4000, 0)).toBeCloseTo(0, 2);
+    expect(partialSum(ex.series!, 4000, 0.5)).toBeCloseTo(1, 2);
+    expect(ex.segments!.length).toBeGreaterThan(0);
   });
 });
