@@ -292,17 +292,15 @@ export function decodeWav(bytes: Uint8Array, options: WavDecodeOptions = {}): Re
 
 type SampleView = Int16Array | Int32Array | Float32Array | Float64Array;
 
+/** A typed view straight over the file bytes, or undefined when the data is not aligned for one. */
 function alignedView<T extends SampleView>(
   Ctor: { new (buffer: ArrayBufferLike, byteOffset: number, length: number): T; BYTES_PER_ELEMENT: number },
   bytes: Uint8Array,
   offset: number,
   count: number,
-): T {
+): T | undefined {
   const absolute = bytes.byteOffset + offset;
-  if (absolute % Ctor.BYTES_PER_ELEMENT === 0) return new Ctor(bytes.buffer, absolute, count);
-  // Unaligned data (e.g. after an 18-byte fmt chunk) is copied once so that a typed view can read it.
-  const copy = bytes.slice(offset, offset + count * Ctor.BYTES_PER_ELEMENT);
-  return new Ctor(copy.buffer, 0, count);
+  return absolute % Ctor.BYTES_PER_ELEMENT === 0 ? new Ctor(bytes.buffer, absolute, count) : undefined;
 }
 
 function deinterleave(source: SampleView, frameCount: number, factors: readonly number[]): Float64Array[] {
@@ -330,15 +328,26 @@ export function decodeWavFrames(
 ): Float64Array[] {
   const channelCount = format.channelCount;
   const count = frameCount * channelCount;
+  // Unaligned data (a float file after an 18-byte fmt chunk starts at byte 58) is read through a DataView:
+  // copying it to align it would cost a fresh allocation, which is dearer than the reads.
+  let view: SampleView | undefined;
   switch (format.sampleFormat) {
     case 'float32':
-      return deinterleave(alignedView(Float32Array, bytes, dataOffset, count), frameCount, factors);
+      view = alignedView(Float32Array, bytes, dataOffset, count);
+      return view ? deinterleave(view, frameCount, factors) : decodeWavFramesPortable(bytes, dataOffset, frameCount, format, factors);
     case 'float64':
-      return deinterleave(alignedView(Float64Array, bytes, dataOffset, count), frameCount, factors);
+      view = alignedView(Float64Array, bytes, dataOffset, count);
+      return view ? deinterleave(view, frameCount, factors) : decodeWavFramesPortable(bytes, dataOffset, frameCount, format, factors);
     case 'pcm16':
-      return deinterleave(alignedView(Int16Array, bytes, dataOffset, count), frameCount, factors.map((k) => k / 32768));
+      view = alignedView(Int16Array, bytes, dataOffset, count);
+      return view
+        ? deinterleave(view, frameCount, factors.map((k) => k / 32768))
+        : decodeWavFramesPortable(bytes, dataOffset, frameCount, format, factors);
     case 'pcm32':
-      return deinterleave(alignedView(Int32Array, bytes, dataOffset, count), frameCount, factors.map((k) => k / 2147483648));
+      view = alignedView(Int32Array, bytes, dataOffset, count);
+      return view
+        ? deinterleave(view, frameCount, factors.map((k) => k / 2147483648))
+        : decodeWavFramesPortable(bytes, dataOffset, frameCount, format, factors);
     case 'pcm24':
       return factors.map((factor, c) => {
         const k = factor / 8388608;
@@ -360,7 +369,10 @@ export function decodeWavFrames(
   }
 }
 
-/** Byte-order-independent path through a DataView: used on big-endian hosts, and in tests as a cross-check. */
+/**
+ * Byte-order-independent path through a DataView: big-endian hosts, unaligned data, and in tests a
+ * cross-check of the typed-array path. One loop per encoding keeps each loop monomorphic.
+ */
 export function decodeWavFramesPortable(
   bytes: Uint8Array,
   dataOffset: number,
@@ -369,18 +381,33 @@ export function decodeWavFramesPortable(
   factors: readonly number[],
 ): Float64Array[] {
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const width = format.blockAlign / format.channelCount;
-  const read: (p: number) => number = {
-    pcm8: (p: number) => (view.getUint8(p) - 128) / 128,
-    pcm16: (p: number) => view.getInt16(p, true) / 32768,
-    pcm24: (p: number) => (view.getUint8(p) + view.getUint8(p + 1) * 256 + view.getInt8(p + 2) * 65536) / 8388608,
-    pcm32: (p: number) => view.getInt32(p, true) / 2147483648,
-    float32: (p: number) => view.getFloat32(p, true),
-    float64: (p: number) => view.getFloat64(p, true),
-  }[format.sampleFormat];
+  const step = format.blockAlign;
+  const width = step / format.channelCount;
   return factors.map((factor, c) => {
     const out = new Float64Array(frameCount);
-    for (let f = 0; f < frameCount; f++) out[f] = read(dataOffset + f * format.blockAlign + c * width) * factor;
+    const first = dataOffset + c * width;
+    switch (format.sampleFormat) {
+      case 'pcm8':
+        for (let f = 0, p = first; f < frameCount; f++, p += step) out[f] = ((view.getUint8(p) - 128) / 128) * factor;
+        break;
+      case 'pcm16':
+        for (let f = 0, p = first; f < frameCount; f++, p += step) out[f] = (view.getInt16(p, true) / 32768) * factor;
+        break;
+      case 'pcm24':
+        for (let f = 0, p = first; f < frameCount; f++, p += step) {
+          out[f] = ((view.getUint8(p) + view.getUint8(p + 1) * 256 + view.getInt8(p + 2) * 65536) / 8388608) * factor;
+        }
+        break;
+      case 'pcm32':
+        for (let f = 0, p = first; f < frameCount; f++, p += step) out[f] = (view.getInt32(p, true) / 2147483648) * factor;
+        break;
+      case 'float32':
+        for (let f = 0, p = first; f < frameCount; f++, p += step) out[f] = view.getFloat32(p, true) * factor;
+        break;
+      case 'float64':
+        for (let f = 0, p = first; f < frameCount; f++, p += step) out[f] = view.getFloat64(p, true) * factor;
+        break;
+    }
     return out;
   });
 }
