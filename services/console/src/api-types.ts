@@ -1,0 +1,240 @@
+// Shapes the console reads from the HTTP API v1 (see the OpenAPI document at /openapi.json).
+// Fields the console does not use are left out; optional ones are read defensively.
+
+export type Zone = 'A' | 'B' | 'C' | 'D';
+
+export interface Site {
+  id: string;
+  name: string;
+}
+
+export interface HypothesisRef {
+  fault: string;
+  component: string;
+  score: number;
+}
+
+export interface SparklineBucket {
+  start: string;
+  mean: number;
+}
+
+export interface MachineSummary {
+  id: string;
+  name: string;
+  modelVersion: number | string | null;
+  worstZone: Zone | null;
+  topHypothesis: HypothesisRef | null;
+  lastMeasuredAt: string | null;
+  activeAlarms: number;
+  mainIndicator: { indicator: string; unit: string; sparkline: SparklineBucket[] } | null;
+}
+
+export interface MeasurementPoint {
+  id: string;
+  quantity: string;
+  unit?: string;
+  near?: string;
+  shaft?: string;
+  direction?: string;
+  alarmLevel?: number | null;
+  tripLevel?: number | null;
+}
+
+export interface MachineDetail {
+  id: string;
+  name: string;
+  modelVersion: number | string | null;
+  model: unknown;
+  points: MeasurementPoint[];
+}
+
+export interface RecordingRow {
+  id: string;
+  recordedAt: string;
+  sampleRateHz: number;
+  sampleCount: number;
+  channels: number;
+  analysisId: string | null;
+  velocityRmsMmPerS: number | null;
+  zone: Zone | null;
+  topHypothesis: HypothesisRef | null;
+}
+
+export interface Evidence {
+  label: string;
+  frequencyHz: number;
+  predicted: number;
+  measured: number | null;
+  snrDb: number | null;
+  matched: boolean;
+  ambiguous?: boolean;
+  /** labels of the other lines of the model that fall on the same peak */
+  ambiguousWith?: string[];
+  measuredFrequencyHz?: number | null;
+}
+
+export type EvidenceDomain = 'spectrum' | 'envelope' | 'order';
+
+export interface Hypothesis {
+  fault: string;
+  component: string;
+  score: number;
+  reason: string;
+  domain: EvidenceDomain;
+  evidence: Evidence[];
+}
+
+export interface SpectrumData {
+  quantity: 'acceleration' | 'velocity';
+  unit: string;
+  scaling: 'peak' | 'rms' | 'psd';
+  frequencyResolutionHz: number;
+  frequenciesHz: number[];
+  values: number[];
+}
+
+export interface RecordingAnalysis {
+  id: string;
+  recordingId: string;
+  modelVersion: number | string | null;
+  createdAt: string;
+  softwareVersion: string;
+  speedHz: number | null;
+  speedSource: 'tach' | 'encoder' | 'spectrum' | 'given' | null;
+  speedUncertaintyHz?: number;
+  domain: 'frequency' | 'angle';
+  overall: {
+    velocityRmsMmPerS: number;
+    bandHz: [number, number];
+    zone: Zone | null;
+    accelerationPeak: number;
+    accelerationUnit: string;
+    crestFactor: number;
+    kurtosis: number;
+    envelopeRms?: number;
+  };
+  indicators: Record<string, number>;
+  spectrum: SpectrumData;
+  envelopeSpectrum?: { bandHz: [number, number]; unit: string; frequenciesHz: number[]; values: number[] };
+  orderSpectrum?: { shaft: string; orders: number[]; values: number[] };
+  hypotheses: Hypothesis[];
+  unexplainedPeaks: Array<{ frequencyHz: number; amplitude: number; snrDb: number }>;
+  warnings: string[];
+}
+
+export interface IndicatorRow {
+  indicator: string;
+  unit: string;
+  count: number;
+}
+
+export interface TrendBucket {
+  start: string;
+  count: number;
+  min: number;
+  mean: number;
+  max: number;
+  last: number;
+  zone: Zone | null;
+  alarmState: string | null;
+}
+
+export interface Trend {
+  machineId: string;
+  pointId: string;
+  indicator: string;
+  unit: string;
+  bucket: 'day' | 'week' | 'month';
+  zoneBoundaries?: { ab: number; bc: number; cd: number } | null;
+  alarmLevel?: number | null;
+  tripLevel?: number | null;
+  buckets: TrendBucket[];
+}
+
+export interface RankingRow {
+  machineId: string;
+  pointId: string;
+  indicator: string;
+  before: number;
+  after: number;
+  rise: number;
+  risePercent: number;
+}
+
+export interface Alarm {
+  id: string;
+  machineId: string;
+  pointId: string;
+  indicator: string;
+  level: 'alarm' | 'trip';
+  value: number;
+  threshold: number;
+  raisedAt: string;
+  acknowledgedAt: string | null;
+  acknowledgedBy: string | null;
+  clearedAt: string | null;
+}
+
+export interface FaultCandidate {
+  fault: string;
+  component: string;
+}
+
+export interface AnalysisSummary {
+  analysisId: string;
+  velocityRmsMmPerS: number | null;
+  zone: Zone | null;
+  speedHz: number | null;
+  speedSource: string | null;
+  topHypotheses: Array<{ fault: string; component: string; score: number; reason: string }>;
+}
+
+export interface UploadResult {
+  recordingId: string;
+  duplicate: boolean;
+  analysis: AnalysisSummary;
+}
+
+/** The predicted signature the explorer draws. Line fields beyond frequency and amplitude are optional. */
+export interface SignatureLine {
+  frequencyHz: number;
+  amplitude?: number;
+  order?: number;
+  label?: string;
+  harmonic?: number;
+  /** 0 for a line of the excitation itself, ±k for the k-th sideband */
+  sideband?: number;
+  magnification?: number | null;
+  family?: string;
+  kind?: string;
+  [key: string]: unknown;
+}
+
+export interface SignatureWarning {
+  kind?: string;
+  message: string;
+}
+
+export interface SignatureResponse {
+  lines: SignatureLine[];
+  naturalFrequenciesHz?: number[];
+  warnings?: Array<string | SignatureWarning>;
+  assumptions?: string[];
+  amplitudeBasis?: 'model' | 'relative';
+  unit?: string;
+  quantity?: string;
+  domain?: 'spectrum' | 'envelope';
+  excitation?: {
+    template?: string;
+    formula?: string;
+    reference?: string;
+    fundamentalOrder?: number | null;
+    angleRev?: number[];
+    waveform?: number[];
+    partialSums?: Record<string, number[]>;
+  };
+  magnification?: Array<{ harmonic: number; frequencyHz: number; factor: number }>;
+  campbell?: unknown;
+  [key: string]: unknown;
+}

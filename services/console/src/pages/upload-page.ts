@@ -1,0 +1,163 @@
+import { ApiProblem } from '../api-client.js';
+import type { UploadResult } from '../api-types.js';
+import type { AppContext, Cleanup } from '../app-context.js';
+import { clear, h, message } from '../dom.js';
+import { faultName, formatFixed } from '../format.js';
+import { routeHref, type Route } from '../route.js';
+import { scoreBadge, zoneBadge } from '../zone-badge.js';
+
+// Upload: drop one or more recordings (WAV, CSV, JSON, raw float32) onto a point; each file gets
+// its own progress bar (XMLHttpRequest upload progress), then its analysis summary.
+
+function formatBytes(n: number): string {
+  return n < 1024 ? `${n} B` : n < 1024 ** 2 ? `${(n / 1024).toFixed(1)} KiB` : `${(n / 1024 ** 2).toFixed(1)} MiB`;
+}
+
+export async function renderUploadPage(main: HTMLElement, ctx: AppContext, route: Route): Promise<Cleanup> {
+  const machines = await ctx.machines();
+  const aborts = new Set<() => void>();
+  main.append(
+    h(
+      'div',
+      { class: 'page-head' },
+      h('h1', {}, 'Upload recordings'),
+      h('p', { class: 'meta' }, 'WAV, CSV, JSON or raw float32 files from a field instrument. Each file is stored once (a repeated upload returns the first result) and analysed against the machine model current at its recording time.'),
+    ),
+    h(
+      'aside',
+      { class: 'safety', role: 'note', 'aria-label': 'Safety note' },
+      h('strong', {}, 'Safety. '),
+      'Recordings are taken under the site’s lock-out/tag-out and guarding rules; never remove a guard from a running machine to place a sensor.',
+    ),
+  );
+  if (machines.length === 0) {
+    main.append(message('empty', 'No machines on this site to upload to.'));
+    return () => {};
+  }
+
+  const machineSelect = h('select', { id: 'up-machine', name: 'machine' }, ...machines.map((m) => h('option', { value: m.id, selected: m.id === route.params.machine }, m.name)));
+  const pointSelect = h('select', { id: 'up-point', name: 'point' });
+  const speedInput = h('input', { id: 'up-speed', name: 'speedRpm', type: 'number', min: 0, step: 'any', placeholder: 'from tach or spectrum', inputmode: 'decimal' });
+  const rateInput = h('input', { id: 'up-rate', name: 'sampleRateHz', type: 'number', min: 1, step: 'any', placeholder: 'WAV: from the file', inputmode: 'decimal' });
+  const unitInput = h('input', { id: 'up-unit', name: 'unit', type: 'text', placeholder: 'e.g. g, m/s^2, mm/s', autocomplete: 'off' });
+  const fileInput = h('input', { id: 'up-files', name: 'file', type: 'file', multiple: true, accept: '.wav,.csv,.json,.bin,.f32,audio/wav,text/csv,application/json,application/octet-stream', class: 'visually-hidden-file' });
+  const drop = h(
+    'div',
+    { class: 'dropzone', id: 'dropzone', 'data-state': 'idle' },
+    h('p', { class: 'drop-title' }, 'Drop recordings here'),
+    h('p', {}, 'or ', h('label', { for: 'up-files', class: 'button-like' }, 'choose files…'), fileInput),
+    h('p', { class: 'help', id: 'drop-target' }),
+  );
+  const list = h('ol', { class: 'upload-list', id: 'upload-list', 'aria-live': 'polite' });
+  main.append(
+    h(
+      'form',
+      { class: 'toolbar upload-form', 'aria-label': 'Where the recordings go', onsubmit: (e: Event) => e.preventDefault() },
+      h('span', { class: 'field' }, h('label', { for: 'up-machine' }, 'Machine'), machineSelect),
+      h('span', { class: 'field' }, h('label', { for: 'up-point' }, 'Point'), pointSelect),
+      h('span', { class: 'field' }, h('label', { for: 'up-speed' }, 'Speed (rpm, optional)'), speedInput),
+      h('span', { class: 'field' }, h('label', { for: 'up-rate' }, 'Sample rate (Hz, CSV/raw)'), rateInput),
+      h('span', { class: 'field' }, h('label', { for: 'up-unit' }, 'Unit (CSV/raw)'), unitInput),
+    ),
+    drop,
+    list,
+  );
+
+  const setTarget = () => {
+    document.getElementById('drop-target')!.textContent = `Files go to ${machineSelect.selectedOptions[0]?.textContent ?? ''} · point ${pointSelect.value || '–'}.`;
+    ctx.remember(routeHref('upload', null, { machine: machineSelect.value, point: pointSelect.value }));
+  };
+  const loadPoints = async () => {
+    const machine = await ctx.machine(machineSelect.value);
+    clear(pointSelect);
+    const sensors = machine.points.filter((p) => p.quantity !== 'tach' && p.quantity !== 'encoder');
+    for (const p of sensors.length ? sensors : machine.points) pointSelect.append(h('option', { value: p.id, selected: p.id === route.params.point }, `${p.id} · ${p.quantity}`));
+    setTarget();
+  };
+  machineSelect.addEventListener('change', () => void loadPoints());
+  pointSelect.addEventListener('change', setTarget);
+  await loadPoints();
+
+  const uploadOne = (file: File) => {
+    const machineId = machineSelect.value;
+    const pointId = pointSelect.value;
+    const progress = h('progress', { max: 100, value: 0, 'aria-label': `Upload progress of ${file.name}` });
+    const status = h('span', { class: 'upload-status' }, 'waiting');
+    const result = h('div', { class: 'upload-result' });
+    const item = h('li', { class: 'upload-item', 'data-file': file.name, 'data-state': 'uploading' }, h('div', { class: 'upload-line' }, h('b', {}, file.name), h('span', { class: 'muted' }, ` ${formatBytes(file.size)} → ${pointId}`), progress, status), result);
+    list.prepend(item);
+    const handle = ctx.api.upload<UploadResult>(
+      `/api/v1/machines/${encodeURIComponent(machineId)}/points/${encodeURIComponent(pointId)}/recordings`,
+      file,
+      (p) => {
+        const pct = p.totalBytes ? Math.round((100 * p.loadedBytes) / p.totalBytes) : 0;
+        progress.value = pct;
+        status.textContent = pct >= 100 ? 'analysing…' : `${pct} %`;
+      },
+      { speedRpm: speedInput.value || undefined, sampleRateHz: rateInput.value || undefined, unit: unitInput.value || undefined },
+    );
+    aborts.add(handle.abort);
+    handle.result
+      .then((r) => {
+        progress.value = 100;
+        item.dataset.state = 'done';
+        item.dataset.recordingId = r.recordingId;
+        status.textContent = r.duplicate ? 'already stored: first result shown' : 'analysed';
+        const a = r.analysis;
+        result.append(
+          h(
+            'div',
+            { class: 'upload-summary', 'data-analysis-id': a.analysisId },
+            zoneBadge(a.zone),
+            h('span', { class: 'num' }, ` ${formatFixed(a.velocityRmsMmPerS, 2)} mm/s RMS`),
+            h('span', {}, ` · speed ${a.speedHz ? `${formatFixed(a.speedHz * 60, 1)} rpm (${a.speedSource ?? '–'})` : 'unknown'}`),
+            ' · ',
+            h('a', { href: routeHref('machine', machineId, { point: pointId, recording: r.recordingId }) }, 'open the analysis'),
+          ),
+          a.topHypotheses.length
+            ? h('ul', { class: 'upload-hyps' }, ...a.topHypotheses.map((x) => h('li', {}, scoreBadge(x.score), ` ${faultName(x.fault)} @ ${x.component}`, h('span', { class: 'muted' }, ` — ${x.reason}`))))
+            : h('p', { class: 'muted' }, 'No fault hypothesis reaches 0.5.'),
+        );
+      })
+      .catch((err: unknown) => {
+        item.dataset.state = 'failed';
+        status.textContent = 'failed';
+        result.append(message('error', err instanceof ApiProblem ? err.message : String(err)));
+        if (err instanceof ApiProblem) for (const e of err.errors) result.append(message('error', `${e.path}: ${e.message}`));
+      })
+      .finally(() => aborts.delete(handle.abort));
+  };
+  const uploadAll = (files: FileList | File[]) => {
+    if (!pointSelect.value) {
+      list.prepend(h('li', {}, message('error', 'Choose a point first.')));
+      return;
+    }
+    for (const f of Array.from(files)) uploadOne(f);
+  };
+
+  fileInput.addEventListener('change', () => {
+    if (fileInput.files?.length) uploadAll(fileInput.files);
+    fileInput.value = '';
+  });
+  drop.addEventListener('dragover', (e) => {
+    e.preventDefault();
+    drop.dataset.state = 'over';
+  });
+  drop.addEventListener('dragleave', () => (drop.dataset.state = 'idle'));
+  drop.addEventListener('drop', (e) => {
+    e.preventDefault();
+    drop.dataset.state = 'idle';
+    if (e.dataTransfer?.files.length) uploadAll(e.dataTransfer.files);
+  });
+  // Dropping a file anywhere else must not navigate away from the console.
+  const swallow = (e: DragEvent) => e.preventDefault();
+  window.addEventListener('dragover', swallow);
+  window.addEventListener('drop', swallow);
+
+  return () => {
+    window.removeEventListener('dragover', swallow);
+    window.removeEventListener('drop', swallow);
+    // uploads keep running in the background if the user navigates away; nothing to abort
+    aborts.clear();
+  };
+}
