@@ -117,3 +117,14 @@ describe('resampleToAngle', () => {
     expect(() => resampleToAngle(x, 10_000, shaftAngleFromLaw((t) => 50 * t, 1000, 10_000), { maxOrder: 100 })).toThrowError(/0.45/);
   });
 });
+
+describe('resampleToAngle defaults', () => {
+  it('lowers the default maxOrder to what a given samplesPerRev carries at the lowest speed', () => {
+    const rate = 10_000;
+    const x = new Float64Array(40_000);
+    const s = resampleToAngle(x, rate, shaftAngleFromLaw(rampRevolutions, 40_000, rate), { samplesPerRev: 64 });
+    // 0.8 × (64/2) × 10 Hz / 30 Hz: the anti-alias stop band (32 × 10 Hz) stays above the pass band (maxOrder × 30 Hz)
+    expect(s.maxOrder).toBeCloseTo((0.8 * 32 * 10) / 30, 1);
+    expect(s.antiAliasHz![0]).toBeLessThan(s.antiAliasHz![1]);
+  });
+});

@@ -15,7 +15,7 @@ export type AngleInterpolation = 'sinc' | 'cubic' | 'linear';
 export interface AngleResamplingOptions {
   /** Samples per revolution of the angle-domain signal; default the power of two >= 2.56 × maxOrder × maxSpeed/minSpeed. */
   samplesPerRev?: number;
-  /** Highest order to keep at every speed of the record; default 0.4 × sampleRate / maxSpeed (what the record holds at top speed). */
+  /** Highest order to keep at every speed of the record; default 0.4 × sampleRate / maxSpeed (what the record holds at top speed), less if samplesPerRev cannot carry it. */
   maxOrder?: number;
   interpolation?: AngleInterpolation;
   /** Low-pass the record before resampling (default true): passes maxOrder × maxSpeed, stops above samplesPerRev/2 × minSpeed. */
@@ -88,7 +88,10 @@ export function resampleToAngle(
   if (!(minSpeedHz > 0)) throw new SignalInputError('angle_not_increasing', 'the shaft speed falls to zero inside the record');
 
   const nyquistHz = sampleRateHz / 2;
-  let maxOrder = options.maxOrder ?? (0.4 * sampleRateHz) / maxSpeedHz;
+  // Without maxOrder: what the record holds at top speed, and no more than a given samplesPerRev can carry at the lowest speed.
+  let maxOrder =
+    options.maxOrder ??
+    Math.min((0.4 * sampleRateHz) / maxSpeedHz, options.samplesPerRev === undefined ? Infinity : (0.8 * (options.samplesPerRev / 2) * minSpeedHz) / maxSpeedHz);
   assertPositive(maxOrder, 'maxOrder');
   if (options.maxOrder !== undefined && maxOrder * maxSpeedHz > 0.45 * sampleRateHz) {
     throw new SignalInputError(
@@ -152,21 +155,24 @@ function nextPowerOfTwo(v: number): number {
 
 /**
  * Zero-phase low-pass of the whole record in the frequency domain: unity up to passHz, a raised-cosine
- * transition to zero at stopHz (shorter ringing at the record's ends than a brick wall). The mean and
- * the straight line between the end samples are removed first and restored after, so the record's ends
- * do not meet in a step.
+ * transition to zero at stopHz (shorter ringing at the record's ends than a brick wall). The straight
+ * line between the end samples is removed first and restored after, so the record's ends do not meet
+ * in a step.
  */
 function lowPass(x: Float64Array, sampleRateHz: number, passHz: number, stopHz: number): Float64Array {
   const n = x.length;
   const a = x[0]!;
   const b = x[n - 1]!;
   const line = (i: number) => a + ((b - a) * i) / (n - 1);
-  const y = new Float64Array(n);
+  // With the end-to-end line removed the record starts and ends at zero, so zero-padding it to a power of
+  // two adds no step, and the transform runs at radix-4 speed whatever the record length.
+  const size = nextPowerOfTwo(n);
+  const y = new Float64Array(size);
   for (let i = 0; i < n; i++) y[i] = x[i]! - line(i);
   const X = realToComplexSpectrum(y);
-  const df = sampleRateHz / n;
-  for (let k = 0; k < n; k++) {
-    const f = Math.min(k, n - k) * df;
+  const df = sampleRateHz / size;
+  for (let k = 0; k < size; k++) {
+    const f = Math.min(k, size - k) * df;
     let h = 1;
     if (f >= stopHz) h = 0;
     else if (f > passHz) h = 0.5 + 0.5 * Math.cos((Math.PI * (f - passHz)) / (stopHz - passHz));
