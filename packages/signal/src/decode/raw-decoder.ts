@@ -48,7 +48,8 @@ export function decodeRaw(bytes: Uint8Array, options: RawDecodeOptions): Recordi
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   let source: Float32Array | Float64Array | undefined;
   if (hostIsLittleEndian) {
-    const aligned = bytes.byteOffset % width === 0 ? bytes : bytes.slice();
+    // new Uint8Array(...) copies: Buffer#slice would share memory and keep the odd offset.
+    const aligned = bytes.byteOffset % width === 0 ? bytes : new Uint8Array(bytes);
     source =
       format === 'float32'
         ? new Float32Array(aligned.buffer, aligned.byteOffset, frameCount * channelCount)
