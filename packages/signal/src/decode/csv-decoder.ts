@@ -389,13 +389,16 @@ function readRows(layout: RowLayout, start: number, startLine: number, sink: Row
     if (row === capacity) sink.onCapacity(line);
     for (let col = 0; col < columnCount; col++) {
       while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++pos];
-      let value = scanner.scan(bytes, pos, length);
+      // Some exporters quote every cell: "1.25" is read here too, anything else quoted goes the slow way.
+      const from = c === QUOTE ? pos + 1 : pos;
+      let value = scanner.scan(bytes, from, length);
       let end = scanner.end;
-      if (end !== pos) {
+      if (end !== from) {
         c = bytes[end];
+        if (from !== pos) c = c === QUOTE ? bytes[++end] : ((end = from), -1);
         while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++end];
       }
-      if (end === pos || !(c === separator || c === LF || c === CR || end >= length)) {
+      if (end === from || !(c === separator || c === LF || c === CR || end >= length)) {
         end = slowCellEnd(layout, pos);
         value = slowCellValue(layout, pos, end, line, col, lineStart);
         c = bytes[end];

@@ -13,7 +13,11 @@ function scanAll(text: string): number | undefined {
 
 describe('DecimalScanner.scan', () => {
   it('reads the forms a CSV file uses', () => {
-    const cases = ['0', '-0', '+7', '12', '3.', '.5', '-.5', '1.250', '1e5', '1E-5', '+1.5e+3', '007.50', '2.5e-308', '1.7976931348623157e308'];
+    const cases = [
+      '0', '-0', '+7', '12', '3.', '.5', '-.5', '1.250', '1e5', '1E-5', '+1.5e+3', '007.50', '2.5e-308', '1.7976931348623157e308',
+      // numpy.savetxt's default '%.18e', and 2^53 + 1, a tie that rounds to even.
+      '3.906250000000000081e-05', '-1.976506442932850216e-02', '9007199254740993', '9007199254740995', '1.0000000000000000000e+00',
+    ];
     for (const text of cases) expect(Object.is(scanAll(text), Number(text)), text).toBe(true);
   });
 
@@ -76,6 +80,30 @@ describe('DecimalScanner.scan', () => {
         const hasDigit = /\d/.test(text.split(/[eE]/)[0]);
         if (hasDigit) expect(Object.is(got, expected), text).toBe(true);
         else expect(got, text).toBeUndefined();
+      }),
+      { numRuns: 5000 },
+    );
+  });
+
+  it('equals Number() on 17 to 19-digit strings just below, at and just above rounding midpoints', () => {
+    // The midpoint between a double and the next one up is (2m + 1) * 2^(e - 1); BigInt gives its exact decimal.
+    const view = new DataView(new ArrayBuffer(8));
+    const midpointDigits = (x: number): [string, number] => {
+      view.setFloat64(0, x);
+      const high = view.getUint32(0);
+      const exponentBits = (high >>> 20) & 0x7ff;
+      const mantissa = (BigInt(high & 0xfffff) << 32n) | BigInt(view.getUint32(4)) | (1n << 52n);
+      const e2 = exponentBits - 1075 - 1;
+      const m = 2n * mantissa + 1n;
+      return e2 >= 0 ? [(m << BigInt(e2)).toString(), 0] : [(m * 5n ** BigInt(-e2)).toString(), e2];
+    };
+    fc.assert(
+      fc.property(fc.double({ min: 1e-40, max: 1e40, noNaN: true }), fc.integer({ min: 16, max: 19 }), fc.constantFrom(-1, 0, 1), (x, n, nudge) => {
+        const [digits, exponent10] = midpointDigits(x);
+        let kept = BigInt(digits.slice(0, n));
+        if (digits.length > n || nudge !== 0) kept += BigInt(nudge);
+        const text = `${kept}e${exponent10 + Math.max(0, digits.length - n)}`;
+        expect(Object.is(scanAll(text), Number(text)), text).toBe(true);
       }),
       { numRuns: 5000 },
     );
