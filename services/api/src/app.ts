@@ -6,6 +6,7 @@ import fastifySwagger from '@fastify/swagger';
 import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
+import { AnalysisPool } from './analysis-pool.js';
 import { authenticate, authorise, bearerToken, type Permission } from './auth.js';
 import type { ServiceConfig } from './config.js';
 import type { Sql } from './database.js';
@@ -38,10 +39,12 @@ declare module 'fastify' {
 export interface Services {
   sql: Sql;
   models: ModelCache;
+  analysis: AnalysisPool;
   config: AppConfig;
 }
 
-export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'>;
+export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'> &
+  Partial<Pick<ServiceConfig, 'analysisThreads'>>;
 
 export interface BuildAppOptions {
   sql: Sql;
@@ -66,7 +69,13 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
   app.decorateRequest('apiKey', null);
   registerProblemHandlers(app);
 
-  const services: Services = { sql: options.sql, models: new ModelCache(), config: options.config };
+  const services: Services = {
+    sql: options.sql,
+    models: new ModelCache(),
+    analysis: new AnalysisPool(options.config.analysisThreads ?? 0),
+    config: options.config,
+  };
+  app.addHook('onClose', async () => services.analysis.close());
 
   await app.register(fastifySwagger, {
     openapi: {

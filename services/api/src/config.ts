@@ -1,3 +1,5 @@
+import { availableParallelism } from 'node:os';
+
 /**
  * Every environment variable the service reads, in one list, each with its default and meaning.
  * README.md documents the same list (a test holds them in step), and docker-compose.yml may set only these.
@@ -19,6 +21,7 @@ export const envVars = [
   { name: 'KINESPEC_MAX_UPLOAD_BYTES', defaultText: '33554432', description: 'Largest accepted request body in bytes (32 MiB); larger uploads get 413.' },
   { name: 'KINESPEC_RATE_LIMIT_MAX', defaultText: '1200', description: 'Requests allowed per key (or per client address without a key) in each window; 0 turns rate limiting off.' },
   { name: 'KINESPEC_RATE_LIMIT_WINDOW_MS', defaultText: '60000', description: 'Length of the rate-limit window in milliseconds.' },
+  { name: 'KINESPEC_ANALYSIS_THREADS', defaultText: 'the number of CPU cores', description: 'Worker threads that analyse recordings (0 analyses on the main thread).' },
   { name: 'KINESPEC_DB_POOL_MAX', defaultText: '10', description: 'Connections in the PostgreSQL pool (server mode; the embedded database always uses 1).' },
   { name: 'KINESPEC_SHUTDOWN_TIMEOUT_MS', defaultText: '10000', description: 'On SIGINT/SIGTERM, how long in-flight requests may take before the process exits anyway.' },
   { name: 'KINESPEC_LOG_LEVEL', defaultText: 'info', description: 'pino log level: fatal, error, warn, info, debug, trace or silent.' },
@@ -40,6 +43,7 @@ export interface ServiceConfig {
   rateLimitMax: number;
   rateLimitWindowMs: number;
   dbPoolMax: number;
+  analysisThreads: number;
   shutdownTimeoutMs: number;
   logLevel: string;
   consoleDir: string;
@@ -86,6 +90,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     rateLimitMax: integer(env, 'KINESPEC_RATE_LIMIT_MAX', 1200, 0),
     rateLimitWindowMs: integer(env, 'KINESPEC_RATE_LIMIT_WINDOW_MS', 60_000, 1),
     dbPoolMax: integer(env, 'KINESPEC_DB_POOL_MAX', 10, 1),
+    analysisThreads: Math.min(integer(env, 'KINESPEC_ANALYSIS_THREADS', availableParallelism(), 0), 64),
     shutdownTimeoutMs: integer(env, 'KINESPEC_SHUTDOWN_TIMEOUT_MS', 10_000, 0),
     logLevel,
     consoleDir: text(env, 'KINESPEC_CONSOLE_DIR') ?? 'services/console/dist',

@@ -70,7 +70,7 @@ async function inject(app: FastifyInstance, request: InjectOptions): Promise<unk
 }
 
 /** Seeds the demo site through the HTTP API; returns the demo keys (shown once). */
-export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string, options: { adminKey: string; now?: Date }): Promise<DemoKeys> {
+export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string, options: { adminKey: string; now?: Date; parallel?: number }): Promise<DemoKeys> {
   const admin = { authorization: `Bearer ${options.adminKey}` };
   const engineer = (await inject(app, { method: 'POST', url: '/api/v1/keys', headers: admin, payload: { role: 'engineer', label: 'demo engineer' } })) as { key: string };
   const logger = (await inject(app, { method: 'POST', url: '/api/v1/keys', headers: admin, payload: { role: 'logger', label: 'demo logger' } })) as { key: string };
@@ -90,17 +90,17 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
     models.push({ demo, model });
   }
 
-  let recordings = 0;
+  // one queue of recordings per point, oldest first; points run side by side so that every analysis thread works
   const slots = DEMO_WEEKS * DEMO_RECORDINGS_PER_WEEK;
-  for (let slot = 0; slot < slots; slot++) {
-    const week = slot / DEMO_RECORDINGS_PER_WEEK;
-    // the last slot lands an hour before now, the others spread evenly before it
-    const recordedAt = new Date(start.getTime() + (slot + 1) * (WEEK_MS / DEMO_RECORDINGS_PER_WEEK) - 3_600_000);
-    for (const [m, { demo, model }] of models.entries()) {
-      const speedRpm = Math.round(model.speed.nominalRpm * (1 - 0.004 * Math.sin(1.7 * slot + m)) * 10) / 10;
-      const severity = demo.develops ? demoSeverity(demo.develops, week) : 0;
-      const faults: SimulatedFault[] = demo.develops && severity > 0 ? [{ fault: demo.develops.fault, component: demo.develops.component, severity }] : [];
-      for (const [p, pointId] of demo.points.entries()) {
+  const queues = models.flatMap(({ demo, model }, m) =>
+    demo.points.map((pointId, p) => async () => {
+      for (let slot = 0; slot < slots; slot++) {
+        const week = slot / DEMO_RECORDINGS_PER_WEEK;
+        // the last slot lands an hour before now, the others spread evenly before it
+        const recordedAt = new Date(start.getTime() + (slot + 1) * (WEEK_MS / DEMO_RECORDINGS_PER_WEEK) - 3_600_000);
+        const speedRpm = Math.round(model.speed.nominalRpm * (1 - 0.004 * Math.sin(1.7 * slot + m)) * 10) / 10;
+        const severity = demo.develops ? demoSeverity(demo.develops, week) : 0;
+        const faults: SimulatedFault[] = demo.develops && severity > 0 ? [{ fault: demo.develops.fault, component: demo.develops.component, severity }] : [];
         const recording = simulateRecording(model, {
           pointId,
           sampleRateHz: DEMO_SAMPLE_RATE_HZ,
@@ -122,9 +122,16 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
           },
           payload: wav,
         });
-        recordings++;
       }
-    }
-  }
+    }),
+  );
+  const parallel = Math.max(1, options.parallel ?? 3);
+  let next = 0;
+  await Promise.all(
+    Array.from({ length: Math.min(parallel, queues.length) }, async () => {
+      while (next < queues.length) await queues[next++]!();
+    }),
+  );
+  const recordings = queues.length * slots;
   return { engineer: engineer.key, logger: logger.key, recordings };
 }

@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import { decodeRecording, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
-import { analyse, softwareVersion, type RecordingAnalysis } from './analysis.js';
+import type { AnalysisPool } from './analysis-pool.js';
+import { softwareVersion, type analyse, type RecordingAnalysis } from './analysis.js';
 import { evaluateAlarms } from './alarms.js';
 import type { Sql } from './database.js';
 import type { ModelCache } from './model-cache.js';
@@ -84,9 +85,9 @@ export function decodeBody(bytes: Buffer, hint: DecodeHint): Recording {
 }
 
 /** Analysis errors of the packages (bad unit, too short a record) are the client's: 422, nothing stored. */
-export function runAnalysis(recording: Recording, options: Parameters<typeof analyse>[1]): RecordingAnalysis {
+export async function runAnalysis(pool: AnalysisPool, recording: Recording, options: Parameters<typeof analyse>[1]): Promise<RecordingAnalysis> {
   try {
-    return analyse(recording, options);
+    return await pool.run(recording, options);
   } catch (err) {
     const e = err as { name?: string; code?: unknown; message?: string };
     if (err instanceof Error && typeof e.code === 'string' && /InputError$/.test(e.name ?? '')) {
@@ -99,6 +100,21 @@ export function runAnalysis(recording: Recording, options: Parameters<typeof ana
 /** Drops non-finite numbers that JSON cannot carry (NaN kurtosis of a constant record, say). */
 export function jsonSafe<T>(value: T): T {
   return JSON.parse(JSON.stringify(value, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))) as T;
+}
+
+/** Significant digits kept of the plot spectra and evidence in a stored analysis. */
+export const STORED_SIGNIFICANT_DIGITS = 6;
+
+/**
+ * The analysis as stored: plot spectra and evidence rounded to six significant digits (far finer than a
+ * plot or a reading needs, and a third of the bytes); `overall` and `indicators` keep full precision, the
+ * same values the trends hold.
+ */
+export function storedAnalysis(a: RecordingAnalysis): RecordingAnalysis {
+  const round = (_k: string, v: unknown) =>
+    typeof v === 'number' && !Number.isInteger(v) ? Number(v.toPrecision(STORED_SIGNIFICANT_DIGITS)) : v;
+  const { overall, indicators, ...rest } = a;
+  return { ...(JSON.parse(JSON.stringify(rest, round)) as typeof rest), overall, indicators };
 }
 
 function isUniqueViolation(err: unknown): boolean {
@@ -142,7 +158,10 @@ async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer
   };
 }
 
-export async function ingestRecording(sql: Sql, models: ModelCache, input: UploadInput): Promise<UploadResult> {
+export async function ingestRecording(
+  { sql, models, analysis: pool }: { sql: Sql; models: ModelCache; analysis: AnalysisPool },
+  input: UploadInput,
+): Promise<UploadResult> {
   const contentHash = createHash('sha256').update(input.bytes).digest();
   const retry = await duplicateResult(sql, input, contentHash);
   if (retry) return retry;
@@ -165,7 +184,7 @@ export async function ingestRecording(sql: Sql, models: ModelCache, input: Uploa
   const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);
   const model = modelVersion === null ? null : await models.get(sql, input.machine.id, modelVersion);
   const analysis = jsonSafe(
-    runAnalysis(recording, {
+    await runAnalysis(pool, recording, {
       model,
       pointId: input.point.pointKey,
       ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
@@ -200,7 +219,7 @@ export async function ingestRecording(sql: Sql, models: ModelCache, input: Uploa
         velocityRmsMmPerS: analysis.overall.velocityRmsMmPerS,
         zone: analysis.overall.zone,
         topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        result: analysis,
+        result: storedAnalysis(analysis),
       });
       await writeTrendValues(tx, {
         pointId: input.point.id,

@@ -2,7 +2,8 @@ import type { Recording } from '@kinespec/signal';
 import { softwareVersion, type RecordingAnalysis } from './analysis.js';
 import { evaluateAlarms } from './alarms.js';
 import type { Sql } from './database.js';
-import { jsonSafe, runAnalysis } from './ingest.js';
+import { jsonSafe, runAnalysis, storedAnalysis } from './ingest.js';
+import type { AnalysisPool } from './analysis-pool.js';
 import type { ModelCache } from './model-cache.js';
 import { problem } from './problems.js';
 import { unpackSamples } from './samples-codec.js';
@@ -24,8 +25,7 @@ import {
  * Recordings are done one at a time, each in its own transaction, oldest first.
  */
 export async function reanalyseMachine(
-  sql: Sql,
-  models: ModelCache,
+  { sql, models, analysis: pool }: { sql: Sql; models: ModelCache; analysis: AnalysisPool },
   machine: MachineRow,
 ): Promise<{ analysed: number; failed: Array<{ recordingId: string; reason: string }>; modelVersion: number }> {
   const version = machine.currentModelVersion;
@@ -52,7 +52,7 @@ export async function reanalyseMachine(
     let analysis: RecordingAnalysis;
     try {
       analysis = jsonSafe(
-        runAnalysis(recording, { model, pointId: point.pointKey, ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}) }),
+        await runAnalysis(pool, recording, { model, pointId: point.pointKey, ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}) }),
       );
     } catch (err) {
       failed.push({ recordingId: id, reason: err instanceof Error ? err.message : String(err) });
@@ -71,7 +71,7 @@ export async function reanalyseMachine(
         velocityRmsMmPerS: analysis.overall.velocityRmsMmPerS,
         zone: analysis.overall.zone,
         topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        result: analysis,
+        result: storedAnalysis(analysis),
       });
       await writeTrendValues(tx, { pointId, recordingId: id, analysisId: stored.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
       await evaluateAlarms(tx, { siteId: machine.siteId, point: p, recordingId: id, recordedAt: row.recordedAt, indicators: analysis.indicators });

@@ -61,7 +61,7 @@ export async function startService(config: ServiceConfig, options: StartOptions 
       seeding = 'the demo site is still being seeded';
       out(`Kinespec: seeding the demo site "${DEMO_SITE_NAME}" (twelve weeks of simulated recordings)...`);
       const started = Date.now();
-      demoKeys = await seedDemo(app, db.sql, boot.siteId, { adminKey: boot.generatedAdminKey ?? config.adminKey! });
+      demoKeys = await seedDemo(app, db.sql, boot.siteId, { adminKey: boot.generatedAdminKey ?? config.adminKey!, parallel: config.analysisThreads + 1 });
       seeding = null;
       out(`Kinespec: demo seeded in ${((Date.now() - started) / 1000).toFixed(1)} s (${demoKeys.recordings} recordings analysed).`);
     }

@@ -221,6 +221,6 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
     },
   }, async (request) => {
     const machine = await machineOf(request.apiKey!.siteId, request.params.machineId);
-    return reanalyseMachine(sql, services.models, machine);
+    return reanalyseMachine(services, machine);
   });
 };

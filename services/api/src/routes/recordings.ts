@@ -204,7 +204,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
         });
       }
     }
-    const result = await ingestRecording(sql, services.models, {
+    const result = await ingestRecording(services, {
       key,
       machine,
       point,
