@@ -136,6 +136,9 @@ describe('decodeCsv', () => {
     const r = decodeCsv('# sampleRateHz=1000\nt,x\n0,1\n0.002,2\n0.004,3\n');
     expect(r.sampleRateHz).toBe(500);
     expect(r.metadata.warning).toMatch(/comment on line 1 gives 1000 Hz/);
+    const o = decodeCsv('# sampleRateHz=1000\nx\n1\n2\n', { sampleRateHz: 2000 });
+    expect(o.sampleRateHz).toBe(2000);
+    expect(o.metadata.warning).toMatch(/gives 1000 Hz but sampleRateHz 2000 was used/);
   });
 
   it('names line and column of a cell that is not a number', () => {

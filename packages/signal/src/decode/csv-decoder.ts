@@ -648,6 +648,9 @@ function chooseSampleRate(
     if (timeHz !== undefined && disagree(optionHz, timeHz)) {
       addWarning(metadata, `the time column gives ${timeHz.toPrecision(8)} Hz but sampleRateHz ${optionHz} was used`);
     }
+    if (comment && disagree(optionHz, comment.value)) {
+      addWarning(metadata, `the comment on line ${comment.line} gives ${comment.value} Hz but sampleRateHz ${optionHz} was used`);
+    }
     return optionHz;
   }
   if (timeHz !== undefined) {
