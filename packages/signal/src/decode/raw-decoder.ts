@@ -46,14 +46,14 @@ export function decodeRaw(bytes: Uint8Array, options: RawDecodeOptions): Recordi
   const names = channelNames(channelCount, options.channelNames);
   const unit = options.unit ?? 'unknown';
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  // Aligned data is read through a typed view over the bytes; unaligned data (a Node Buffer cut from the
+  // shared pool can start anywhere) through the DataView, which costs less than copying it into alignment.
   let source: Float32Array | Float64Array | undefined;
-  if (hostIsLittleEndian) {
-    // new Uint8Array(...) copies: Buffer#slice would share memory and keep the odd offset.
-    const aligned = bytes.byteOffset % width === 0 ? bytes : new Uint8Array(bytes);
+  if (hostIsLittleEndian && bytes.byteOffset % width === 0) {
     source =
       format === 'float32'
-        ? new Float32Array(aligned.buffer, aligned.byteOffset, frameCount * channelCount)
-        : new Float64Array(aligned.buffer, aligned.byteOffset, frameCount * channelCount);
+        ? new Float32Array(bytes.buffer, bytes.byteOffset, frameCount * channelCount)
+        : new Float64Array(bytes.buffer, bytes.byteOffset, frameCount * channelCount);
   }
   const channels = names.map((name, c) => {
     const samples = new Float64Array(frameCount);
