@@ -138,6 +138,37 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     await chart.screenshot({ path: join(shots, `machine-${kind}-chart.png`) });
   });
 
+  it('finds the developing gear tooth fault and the bearing outer-race defect from the machine pages', async () => {
+    const machines = await service.get<MachineRow[]>('/api/v1/machines');
+    const found = new Map<string, { machineId: string; pointId: string }>();
+    for (const m of machines) {
+      await page.goto(`${service.url}#/machine/${encodeURIComponent(m.id)}`);
+      const panel = page.locator('#developing-panel');
+      await expect.poll(() => panel.getAttribute('data-state'), { timeout: 60_000 }).toMatch(/done|failed/);
+      expect(await panel.getAttribute('data-state')).toBe('done');
+      for (const row of await panel.locator('tr[data-hypothesis]').all()) {
+        const fault = (await row.getAttribute('data-hypothesis'))!.split(':')[0]!;
+        if (!found.has(fault)) found.set(fault, { machineId: m.id, pointId: (await row.getAttribute('data-point-id'))! });
+      }
+    }
+    const tooth = [...found.keys()].find((f) => f === 'gear-broken-tooth' || f === 'gear-missing-tooth');
+    expect(tooth, `developing faults found: ${[...found.keys()].join(', ')}`).toBeDefined();
+    expect(found.has('bearing-outer-race'), `developing faults found: ${[...found.keys()].join(', ')}`).toBe(true);
+
+    // following the panel's link draws that hypothesis's lines on its spectrum
+    const at = found.get(tooth!)!;
+    await page.goto(`${service.url}#/machine/${encodeURIComponent(at.machineId)}`);
+    const row = page.locator(`#developing-panel tr[data-hypothesis^="${tooth}:"][data-point-id="${at.pointId}"]`).first();
+    await row.waitFor({ timeout: 60_000 });
+    const key = (await row.getAttribute('data-hypothesis'))!;
+    await row.getByRole('link', { name: 'show on the spectrum' }).click();
+    await expect.poll(() => page.locator('figure[data-chart="spectrum"]').getAttribute('data-hypothesis'), { timeout: 30_000 }).toBe(key);
+    expect(Number(await page.locator('figure[data-chart="spectrum"]').getAttribute('data-predicted-count'))).toBeGreaterThan(0);
+    await page.waitForTimeout(300);
+    await page.screenshot({ path: join(shots, 'developing-gear-fault.png'), fullPage: true });
+    await page.screenshot({ path: join(shots, 'developing-gear-fault-first-screen.png') });
+  });
+
   it('zooms with the keyboard and switches to a log amplitude axis', async () => {
     const chart = page.locator('figure[data-chart="spectrum"]');
     const before = Number(await chart.getAttribute('data-x-max'));
@@ -152,10 +183,10 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
 
   it('labels every machine-page control and reaches the point, recording and chart controls with Tab', async () => {
     expect(await unlabelledControls(page)).toEqual([]);
-    const stops = await tabStops(page, 40);
-    expect(stops.some((s) => s.startsWith('#point-'))).toBe(true);
-    expect(stops.some((s) => s.startsWith('#recording-'))).toBe(true);
-    expect(stops.some((s) => s.startsWith('#hyp-'))).toBe(true);
+    const stops = await tabStops(page, 60);
+    for (const prefix of ['#point-', '#recording-', '#draw-select-', '#amplitude-scale-', 'button:Zoom in', '#hyp-']) {
+      expect(stops.some((s) => s.startsWith(prefix)), `Tab reaches ${prefix}`).toBe(true);
+    }
   });
 
   it('shows the predicted signature of the suspected fault with its magnification and Campbell data', async () => {

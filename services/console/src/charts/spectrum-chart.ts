@@ -120,50 +120,64 @@ export function createSpectrumChart(host: HTMLElement, opts: SpectrumChartOption
   host.append(figure);
 
   let drawCount = 0;
-  const drawLines = (self: uPlot) => {
-    const ctx = self.ctx;
-    const px = uPlot.pxRatio;
-    const { left, top, width, height: plotHeight } = self.bbox;
+  const visible = (self: uPlot) => {
     const min = self.scales.x!.min!;
     const max = self.scales.x!.max!;
+    return opts.lines.filter((l) => l.x >= min && l.x <= max);
+  };
+  const xOf = (self: uPlot, line: PredictedLine) => Math.round(self.valToPos(line.x, 'x', true)) + 0.5;
+
+  // The vertical lines go behind the measured curve (drawAxes runs before the series), so a matched
+  // peak stays visible on top of its prediction.
+  const drawLinesBehind = (self: uPlot) => {
+    const ctx = self.ctx;
+    const px = uPlot.pxRatio;
+    const { top, height: plotHeight } = self.bbox;
     ctx.save();
-    ctx.beginPath();
-    ctx.rect(left - 6 * px, 0, width + 12 * px, top + plotHeight);
-    ctx.clip();
-    ctx.font = `${10 * px}px system-ui, sans-serif`;
-    ctx.textBaseline = 'bottom';
-    const rowEnds = [-Infinity, -Infinity];
-    const markerY = top - 6 * px;
-    for (const line of opts.lines) {
-      if (line.x < min || line.x > max) continue;
-      const x = Math.round(self.valToPos(line.x, 'x', true)) + 0.5;
-      const style = lineStyle(line);
-      const colour = familyColours[line.family];
-      ctx.strokeStyle = colour;
+    for (const line of visible(self)) {
+      const x = xOf(self, line);
+      ctx.strokeStyle = familyColours[line.family];
+      ctx.globalAlpha = line.matched ? 0.85 : 0.7;
       ctx.lineWidth = (line.matched ? 1.6 : 1.2) * px;
-      ctx.setLineDash(style.dash.map((d) => d * px));
+      ctx.setLineDash(lineStyle(line).dash.map((d) => d * px));
       ctx.beginPath();
       ctx.moveTo(x, top);
       ctx.lineTo(x, top + plotHeight);
       ctx.stroke();
-      ctx.setLineDash([]);
+    }
+    ctx.restore();
+  };
+
+  // Markers and labels above the plot area, after everything else.
+  const drawMarkers = (self: uPlot) => {
+    const ctx = self.ctx;
+    const px = uPlot.pxRatio;
+    const { left, top, width } = self.bbox;
+    ctx.save();
+    ctx.beginPath();
+    ctx.rect(left - 6 * px, 0, width + 12 * px, top);
+    ctx.clip();
+    ctx.font = `${10 * px}px system-ui, sans-serif`;
+    ctx.textBaseline = 'bottom';
+    ctx.textAlign = 'center';
+    const rowEnds = [-Infinity, -Infinity];
+    const markerY = top - 6 * px;
+    for (const line of visible(self)) {
+      const x = xOf(self, line);
+      const style = lineStyle(line);
+      const colour = familyColours[line.family];
       traceMarker(ctx, style.shape, x, markerY, 8 * px);
-      if (style.filled) {
-        ctx.fillStyle = colour;
-        ctx.fill();
-      } else {
-        ctx.fillStyle = '#fff';
-        ctx.fill();
-        ctx.lineWidth = 1.4 * px;
-        ctx.stroke();
-      }
+      ctx.strokeStyle = colour;
+      ctx.lineWidth = 1.4 * px;
+      ctx.fillStyle = style.filled ? colour : '#fff';
+      ctx.fill();
+      if (!style.filled) ctx.stroke();
       // Two staggered label rows above the markers; a label that does not fit is left to the table.
       const text = line.label;
       const textWidth = ctx.measureText(text).width;
       const row = rowEnds.findIndex((end) => x - textWidth / 2 > end + 3 * px);
       if (row >= 0 && text) {
         ctx.fillStyle = ink;
-        ctx.textAlign = 'center';
         ctx.fillText(text, x, markerY - (6 + row * 11) * px);
         rowEnds[row] = x + textWidth / 2;
       }
@@ -222,7 +236,8 @@ export function createSpectrumChart(host: HTMLElement, opts: SpectrumChartOption
     ],
     cursor: { drag: { x: true, y: false, setScale: true }, points: { show: false }, y: false },
     hooks: {
-      draw: [drawLines],
+      drawAxes: [drawLinesBehind],
+      draw: [drawMarkers],
       setCursor: [updateReadout],
       setScale: [
         (self, key) => {

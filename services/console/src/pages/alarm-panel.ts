@@ -57,10 +57,14 @@ export async function renderAlarmPanel(host: HTMLElement, ctx: AppContext, machi
     });
     body.append(
       h(
+        'div',
+        { class: 'table-scroll' },
+        h(
         'table',
         { class: 'data compact' },
         h('thead', {}, h('tr', {}, ...['Level', 'Point', 'Indicator', 'Value / threshold', 'Raised', 'State'].map((t) => h('th', { scope: 'col' }, t)))),
         h('tbody', {}, ...rows),
+        ),
       ),
     );
     if (shown.length < alarms.length) body.append(h('p', { class: 'help' }, `${alarms.length - shown.length} older cleared alarms not shown.`));

@@ -45,7 +45,7 @@ function summaryStrip(a: RecordingAnalysis): HTMLElement {
     item('Crest factor', formatFixed(a.overall.crestFactor, 2)),
     item('Kurtosis', formatFixed(a.overall.kurtosis, 2)),
     a.overall.envelopeRms !== undefined ? item('Envelope RMS', formatNumber(a.overall.envelopeRms)) : null,
-    item('Analysed', `${formatDateTime(a.createdAt)} · v${a.softwareVersion} · model ${a.modelVersion ?? '–'}`),
+    item('Analysed', `${formatDateTime(a.createdAt)} · ${/^\d/.test(a.softwareVersion) ? 'v' : ''}${a.softwareVersion} · model ${a.modelVersion ?? '–'}`),
   );
 }
 
@@ -64,7 +64,6 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
 
   // Hypotheses, strongest first; the chosen one's lines are drawn.
   const hypSection = h('section', { class: 'panel hypotheses', 'aria-labelledby': 'hyp-title' }, h('h2', { id: 'hyp-title' }, 'Hypotheses'));
-  root.append(hypSection);
   const hypBody = h('tbody');
   if (hypotheses.length === 0) {
     hypSection.append(message('empty', 'No hypotheses: the machine has no model for this point, or diagnosis did not run. The spectrum and overall levels stand on their own.'));
@@ -86,7 +85,8 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
   const controls = h('div', { class: 'toolbar chart-controls' });
   const chartsBox = h('div', { class: 'spectra', id: 'spectra' });
   const evidenceBox = h('section', { class: 'panel evidence', 'aria-labelledby': 'evidence-title' });
-  root.append(controls, chartsBox, evidenceBox);
+  // charts first: the measured spectrum with the lines on it is what the engineer looks at
+  root.append(controls, chartsBox, hypSection, evidenceBox);
 
   // The strongest few are shown; the long tail of near-zero candidates waits behind a button.
   let showAllHypotheses = false;
@@ -104,6 +104,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
   });
   const renderHypotheses = () => {
     clear(hypBody);
+    fillDrawSelect();
     const list = showAllHypotheses ? hypotheses : shortList();
     list.forEach((x) => {
       const i = hypotheses.indexOf(x);
@@ -140,6 +141,21 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
 
   const emit = () => onState({ hypothesis: chosen ? hypothesisKey(chosen) : null, logY, quantity });
 
+  const drawSelectId = uid('draw-select');
+  const drawSelect = h('select', { id: drawSelectId, class: 'draw-select' });
+  const fillDrawSelect = () => {
+    clear(drawSelect);
+    drawSelect.append(h('option', { value: '' }, 'none'));
+    hypotheses.forEach((x, i) => drawSelect.append(h('option', { value: String(i), selected: x === chosen }, `${x.score.toFixed(2)} · ${faultName(x.fault)} @ ${x.component}`)));
+  };
+  drawSelect.addEventListener('change', () => {
+    chosen = drawSelect.value === '' ? null : hypotheses[Number(drawSelect.value)] ?? null;
+    emit();
+    renderCharts(true);
+    renderEvidence();
+    renderHypotheses();
+  });
+  if (hypotheses.length) controls.append(h('span', { class: 'field' }, h('label', { for: drawSelectId }, 'Predicted lines of'), drawSelect));
   controls.append(
     radioGroup('amplitude-scale', 'Amplitude', [['linear', 'linear'], ['log', 'log']], logY ? 'log' : 'linear', (v) => {
       logY = v === 'log';

@@ -7,6 +7,7 @@ import { routeHref, type Route } from '../route.js';
 import type { Quantity } from '../spectrum-quantity.js';
 import { renderAlarmPanel } from './alarm-panel.js';
 import { renderAnalysisView, type AnalysisViewState } from './analysis-view.js';
+import { renderDevelopingPanel } from './developing-panel.js';
 import { renderTrendPanel } from './trend-panel.js';
 
 // Machine: its points; for the chosen point its recordings, the chosen recording's analysis, the
@@ -93,7 +94,8 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
   const analysisHost = h('div', { class: 'machine-analysis', id: 'analysis-host', 'aria-live': 'polite' });
   const trendsHost = h('div', { class: 'machine-trends' });
   const alarmsHost = h('div', { class: 'machine-alarms' });
-  main.append(h('div', { class: 'machine-layout' }, side, analysisHost), trendsHost, alarmsHost);
+  const developingHost = h('div', { class: 'machine-developing' });
+  main.append(developingHost, h('div', { class: 'machine-layout' }, side, analysisHost), trendsHost, alarmsHost);
 
   if (machine.points.length === 0) pointsBox.append(message('empty', 'This machine has no measurement points.'));
   for (const p of machine.points) {
@@ -181,6 +183,9 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
 
   cleanups.push(() => analysisCleanup?.(), () => trendCleanup?.());
   void renderAlarmPanel(alarmsHost, ctx, machineId);
+  let alive = true;
+  cleanups.push(() => (alive = false));
+  void renderDevelopingPanel(developingHost, ctx, machineId, machine.points, () => alive);
   await loadPoint();
   return () => {
     loadToken += 1;
