@@ -69,8 +69,10 @@ export function cepstralPeak(cepstrum: Cepstrum, periodS: number, toleranceFract
   for (let i = lo; i <= hi; i++) if (values[i]! > values[at]!) at = i;
   const wLo = Math.max(2, Math.floor((0.5 * periodS) / dq));
   const wHi = Math.min(last, Math.ceil((1.5 * periodS) / dq));
+  // The background statistics need a few hundred values, not every one of a long window.
+  const stride = Math.max(1, Math.floor((wHi - wLo + 1) / 400));
   const around: number[] = [];
-  for (let i = wLo; i <= wHi; i++) if (i < lo || i > hi) around.push(values[i]!);
+  for (let i = wLo; i <= wHi; i += stride) if (i < lo || i > hi) around.push(values[i]!);
   if (around.length < 8) return { quefrencyS: quefrenciesS[at]!, value: values[at]!, prominence: 0 };
   around.sort((a, b) => a - b);
   const median = around[Math.floor(around.length / 2)]!;

@@ -1,1 +1,38 @@
-export {};
+// Public surface of @kinespec/diagnosis: running speed, line matching, hypothesis scores, ISO severity,
+// and the whole-recording analysis the service stores. Other packages import only from here.
+export { analyseRecording, SOFTWARE_VERSION, type AnalyseOptions } from './analyse-recording.js';
+export type { Evidence, Hypothesis, HypothesisDomain, PlotSpectrum, RecordingAnalysis, SpeedSource } from './recording-analysis.js';
+export { DiagnosisInputError, diagnosisErrorCodes, type DiagnosisErrorCode } from './errors.js';
+export {
+  ISO_10816_3_ZONE_TABLE,
+  gradeSeverity,
+  isoBandHz,
+  isoZone,
+  isoZoneBoundaries,
+  type AlarmState,
+  type IsoFoundation,
+  type IsoGroup,
+  type IsoZone,
+  type SeverityLevels,
+  type SeverityOptions,
+  type ZoneBoundaries,
+} from './iso-zones.js';
+export { timeIndicators, type TimeIndicators } from './time-indicators.js';
+export { accelerationSignal } from './acceleration-signal.js';
+export { spectralKurtosis, type SpectralKurtosis, type SpectralKurtosisOptions } from './spectral-kurtosis.js';
+export { fastKurtogram, type Kurtogram, type KurtogramBand, type KurtogramOptions } from './kurtogram.js';
+export { envelopeBand, type EnvelopeBand } from './envelope-band.js';
+export { powerCepstrum, cepstralPeak, type Cepstrum, type CepstralPeak } from './cepstrum.js';
+export {
+  lineToleranceHz,
+  matchLine,
+  matchableSpectrum,
+  type ExpectedLine,
+  type LineMatch,
+  type MatchableSpectrum,
+  type ToleranceOptions,
+} from './line-matching.js';
+export { speedFromSpectrum, type SpectrumSpeed, type SpectrumSpeedOptions } from './running-speed.js';
+export { speedFromTach, type TachSpeed } from './tach-speed.js';
+export { LineCatalogue, type CatalogueLine } from './ambiguity.js';
+export { scoreCandidates, evidenceOf, type Candidate, type ScoredCandidate, type ScoreParts, type ScoringInputs } from './hypothesis-score.js';

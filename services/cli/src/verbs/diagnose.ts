@@ -1,12 +1,131 @@
+import { basename } from 'node:path';
+import { parseArgs } from 'node:util';
+import { analyseRecording, DiagnosisInputError, type RecordingAnalysis } from '@kinespec/diagnosis';
+import { SignalInputError, type Recording } from '@kinespec/signal';
 import { CliError } from '../cli-error.js';
+import type { CliIo } from '../io.js';
+import { loadMachineFile } from '../machine-file.js';
 import type { Verb } from '../verb.js';
+import { loadRecordingFile } from './spectrum.js';
 
-// Placeholder until its issue lands; replaced by the real verb.
+const USAGE =
+  'kinespec diagnose <recording> --machine <machine.json> [--point id] [--channel N|name] [--tach-channel N|name] ' +
+  '[--pulses-per-rev N] [--speed-rpm N] [--sample-rate Hz] [--unit g] [--json]';
+
+/** Hypotheses printed after the ones the recording shows. */
+const NEXT_COUNT = 3;
+
+/** A channel by exact name or by 1-based number (as `kinespec spectrum --channel`); returns the 0-based index. */
+function channelIndex(recording: Recording, flag: string, selector: string | undefined): number | undefined {
+  if (selector === undefined) return undefined;
+  const byName = recording.channels.findIndex((c) => c.name === selector);
+  if (byName >= 0) return byName;
+  const n = Number(selector);
+  if (Number.isInteger(n) && n >= 1 && n <= recording.channels.length) return n - 1;
+  const names = recording.channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ');
+  throw new CliError(`--${flag} '${selector}' matches no channel; the recording has ${names}`);
+}
+
+function positiveNumber(flag: string, text: string | undefined, whole = false): number | undefined {
+  if (text === undefined) return undefined;
+  const v = Number(text);
+  if (text.trim() === '' || !Number.isFinite(v) || v <= 0 || (whole && !Number.isInteger(v))) {
+    throw new CliError(`--${flag} must be ${whole ? 'a whole number >= 1' : 'a number > 0'} (got '${text}')`);
+  }
+  return v;
+}
+
+function fmt(x: number, digits = 2): string {
+  return Number.isFinite(x) ? x.toFixed(digits) : String(x);
+}
+
+/** The human summary: speed, overall level and zone, the faults shown with their reasons, then the next three. */
+export function formatDiagnosis(analysis: RecordingAnalysis, context: { file: string; machine: string }): string {
+  const lines: string[] = [];
+  lines.push(`${context.file}: machine '${context.machine}', point '${analysis.pointId ?? '-'}', ${analysis.domain === 'angle' ? 'angle (order-tracked)' : 'frequency'} domain`);
+  if (analysis.speedHz !== null) {
+    const unc = analysis.speedUncertaintyHz !== undefined ? ` ± ${fmt(analysis.speedUncertaintyHz * 60, 1)} rpm` : '';
+    lines.push(`speed: ${fmt(analysis.speedHz * 60, 1)} rpm (${fmt(analysis.speedHz, 3)} Hz)${unc}, from ${analysis.speedSource === 'given' ? 'the value given' : `the ${analysis.speedSource}`}`);
+  } else {
+    lines.push('speed: unknown');
+  }
+  const o = analysis.overall;
+  const zone = o.zone ? `ISO 20816-3 zone ${o.zone}` : 'no ISO zone (the model gives no machine group)';
+  const alarm = o.alarmState && o.alarmState !== 'normal' ? `, ${o.alarmState.toUpperCase()} level reached` : '';
+  lines.push(`overall: ${fmt(o.velocityRmsMmPerS)} mm/s RMS (${o.bandHz[0]}–${fmt(o.bandHz[1], 0)} Hz), ${zone}${alarm}`);
+  lines.push(`acceleration: peak ${fmt(o.accelerationPeak, 3)} ${o.accelerationUnit}, crest factor ${fmt(o.crestFactor)}, kurtosis ${fmt(o.kurtosis)}`);
+  const shown = analysis.hypotheses.filter((h) => h.score >= 0.5);
+  const rest = analysis.hypotheses.filter((h) => h.score < 0.5).slice(0, NEXT_COUNT);
+  const row = (h: RecordingAnalysis['hypotheses'][number]) => `  ${fmt(h.score)}  ${h.fault} in ${h.component}: ${h.reason}`;
+  lines.push(shown.length > 0 ? 'faults shown (score >= 0.5):' : 'faults shown (score >= 0.5): none');
+  for (const h of shown) lines.push(row(h));
+  if (rest.length > 0) {
+    lines.push('next:');
+    for (const h of rest) lines.push(row(h));
+  }
+  if (analysis.unexplainedPeaks.length > 0) {
+    lines.push(`unexplained peaks: ${analysis.unexplainedPeaks.slice(0, 5).map((p) => `${fmt(p.frequencyHz, 1)} Hz (${fmt(p.snrDb, 0)} dB)`).join(', ')}`);
+  }
+  for (const w of analysis.warnings) lines.push(`note: ${w}`);
+  lines.push('A score supports, and never replaces, the judgement of a qualified engineer on site.');
+  return lines.join('\n');
+}
+
 export const diagnoseVerb: Verb = {
   name: 'diagnose',
-  summary: 'diagnose (not built yet)',
-  usage: 'kinespec diagnose',
-  async run() {
-    throw new CliError('this verb is not built yet');
+  summary: 'Diagnose a recording against a machine model: running speed, overall level and ISO zone, a scored hypothesis with evidence for every fault candidate',
+  usage: USAGE,
+  async run(args: string[], io: CliIo): Promise<number> {
+    let parsed;
+    try {
+      parsed = parseArgs({
+        args,
+        allowPositionals: true,
+        strict: true,
+        options: {
+          machine: { type: 'string' },
+          point: { type: 'string' },
+          channel: { type: 'string' },
+          'tach-channel': { type: 'string' },
+          'pulses-per-rev': { type: 'string' },
+          'speed-rpm': { type: 'string' },
+          'sample-rate': { type: 'string' },
+          unit: { type: 'string' },
+          json: { type: 'boolean' },
+        },
+      });
+    } catch (err) {
+      throw new CliError(`${(err as Error).message.split('\n')[0]} (usage: ${USAGE})`);
+    }
+    const { values: v, positionals } = parsed;
+    if (positionals.length !== 1) {
+      throw new CliError(positionals.length === 0 ? `a recording file is required (usage: ${USAGE})` : `one recording file at a time (got ${positionals.length})`);
+    }
+    if (v.machine === undefined) throw new CliError(`--machine <machine.json> is required (usage: ${USAGE})`);
+    const speedRpm = positiveNumber('speed-rpm', v['speed-rpm']);
+    const pulsesPerRev = positiveNumber('pulses-per-rev', v['pulses-per-rev'], true);
+    const sampleRateHz = positiveNumber('sample-rate', v['sample-rate']);
+    if (v.unit !== undefined && v.unit.trim() === '') throw new CliError('--unit must name a unit, e.g. g, m/s^2, mm/s');
+    const file = positionals[0]!;
+    const model = loadMachineFile(v.machine, io);
+    let analysis: RecordingAnalysis;
+    try {
+      const recording = loadRecordingFile(file, { ...(sampleRateHz !== undefined ? { sampleRateHz } : {}), ...(v.unit !== undefined ? { unit: v.unit } : {}) });
+      const channel = channelIndex(recording, 'channel', v.channel);
+      const tachChannel = channelIndex(recording, 'tach-channel', v['tach-channel']);
+      analysis = analyseRecording(recording, {
+        model,
+        ...(v.point !== undefined ? { pointId: v.point } : {}),
+        ...(speedRpm !== undefined ? { speedRpm } : {}),
+        ...(channel !== undefined ? { channel } : {}),
+        ...(tachChannel !== undefined ? { tachChannel } : {}),
+        ...(pulsesPerRev !== undefined ? { pulsesPerRev } : {}),
+      });
+    } catch (err) {
+      if (err instanceof SignalInputError || err instanceof DiagnosisInputError) throw new CliError(`${basename(file)}: ${err.message}`);
+      throw err;
+    }
+    io.out(v.json ? JSON.stringify(analysis, null, 2) : formatDiagnosis(analysis, { file: basename(file), machine: model.id }));
+    return 0;
   },
 };
