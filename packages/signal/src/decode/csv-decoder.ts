@@ -91,7 +91,7 @@ function afterBreak(bytes: Uint8Array, end: number): number {
 }
 
 const utf8 = new TextDecoder('utf-8');
-const text = (bytes: Uint8Array, start: number, end: number) => utf8.decode(bytes.subarray(start, end));
+const decodeSpan = (bytes: Uint8Array, start: number, end: number) => utf8.decode(bytes.subarray(start, end));
 
 function isBlank(line: string): boolean {
   return line.trim() === '';
@@ -187,7 +187,7 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
   }
   while (pos < length) {
     const end = lineEnd(bytes, pos);
-    const content = text(bytes, pos, end);
+    const content = decodeSpan(bytes, pos, end);
     const trimmed = content.trimStart();
     if (trimmed.charCodeAt(0) === HASH) {
       readComment(trimmed.slice(1), line, comments);
@@ -382,7 +382,7 @@ function readRows(layout: RowLayout, start: number, startLine: number, sink: Row
     while (c === SPACE || (c === TAB && skipTabs)) c = bytes[++pos];
     if (c === HASH) {
       const end = lineEnd(bytes, pos);
-      readComment(text(bytes, pos + 1, end), line, sink.comments);
+      readComment(decodeSpan(bytes, pos + 1, end), line, sink.comments);
       pos = afterBreak(bytes, end);
       line++;
       continue;
@@ -413,7 +413,7 @@ function readRows(layout: RowLayout, start: number, startLine: number, sink: Row
       if (value - value !== 0) {
         throw decodeError(
           'non_finite_sample',
-          `Line ${line}, column ${col + 1}${columnLabel(layout, col)} holds ${text(bytes, pos, end).trim()}, which is out of the range of a double; a recording must hold finite numbers only.`,
+          `Line ${line}, column ${col + 1}${columnLabel(layout, col)} holds ${decodeSpan(bytes, pos, end).trim()}, which is out of the range of a double; a recording must hold finite numbers only.`,
           `line ${line}, column ${col + 1}`,
         );
       }
@@ -446,7 +446,7 @@ function columnLabel(layout: RowLayout, col: number): string {
 
 function columnCountError(layout: RowLayout, line: number, lineStart: number): never {
   const { bytes, separator, trailingSeparator, columnCount, firstLine, header } = layout;
-  const found = splitCells(text(bytes, lineStart, lineEnd(bytes, lineStart)), separator);
+  const found = splitCells(decodeSpan(bytes, lineStart, lineEnd(bytes, lineStart)), separator);
   const cells = trailingSeparator && found.length > 1 && found[found.length - 1] === '' ? found.length - 1 : found.length;
   throw decodeError(
     'csv_column_count',
@@ -472,7 +472,7 @@ function slowCellEnd(layout: RowLayout, start: number): number {
 function slowCellValue(layout: RowLayout, start: number, end: number, line: number, col: number, lineStart: number): number {
   const { bytes, separator, columnCount, scanner } = layout;
   const where = `line ${line}, column ${col + 1}`;
-  const cell = unquote(text(bytes, start, end));
+  const cell = unquote(decodeSpan(bytes, start, end));
   if (cell === '') {
     const atLineEnd = end >= bytes.length || bytes[end] === LF || bytes[end] === CR;
     if (col === 0 && atLineEnd && columnCount > 1) columnCountError(layout, line, lineStart);
