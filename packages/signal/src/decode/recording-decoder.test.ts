@@ -29,6 +29,7 @@ describe('detectRecordingFormat', () => {
     expect(detectRecordingFormat(new Uint8Array(8), { filename: 'run.f32' })).toBe('raw');
     expect(detectRecordingFormat(new Uint8Array(8), { sampleFormat: 'float64' })).toBe('raw');
     expect(detectRecordingFormat(text(' \n{"a":1}'))).toBe('json');
+    expect(detectRecordingFormat(text('{"a":1}'), { contentType: 'text/plain' })).toBe('json');
     expect(detectRecordingFormat(text('\ufefftime,x\n0,1\n'))).toBe('csv');
     expect(codeOf(() => detectRecordingFormat(Uint8Array.from([0, 1, 2, 255])))).toBe('unsupported_format');
     expect(codeOf(() => detectRecordingFormat(text('1'), { format: 'mp3' as 'wav' }))).toBe('option_invalid');

@@ -46,7 +46,6 @@ const contentTypes: Record<string, RecordingFormat> = {
   'text/csv': 'csv',
   'application/csv': 'csv',
   'text/tab-separated-values': 'csv',
-  'text/plain': 'csv',
   'application/json': 'json',
 };
 
@@ -91,6 +90,7 @@ function firstTextChar(bytes: Uint8Array): number {
 /**
  * Picks the decoder: an explicit `format`, else RIFF magic, else the Content-Type, else the file
  * extension, else `sampleFormat` (raw), else the content ('{' or '[' is JSON, other text is CSV).
+ * Generic types (text/plain, application/octet-stream) say nothing and leave it to the later rules.
  */
 export function detectRecordingFormat(bytes: Uint8Array, hint: DecodeHint = {}): RecordingFormat {
   if (hint.format !== undefined) {
