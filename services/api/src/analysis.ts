@@ -6,7 +6,8 @@ import {
   type RecordingAnalysis,
 } from '@kinespec/diagnosis';
 import type { MachineModel } from '@kinespec/kinematics';
-import type { Recording } from '@kinespec/signal';
+import { convertUnit, isMotionUnit, quantityOfUnit, type Recording } from '@kinespec/signal';
+import { ACCELERATION_INDICATORS, accelerationTrendUnit } from './indicators.js';
 
 /*
  * The one place where the service asks the packages to analyse a recording: ingest, re-analysis and
@@ -27,14 +28,28 @@ export function softwareVersion(): string {
   return SOFTWARE_VERSION;
 }
 
-/** Analyses one recording of a machine point. Throws the packages' typed errors for unusable input. */
+/**
+ * Analyses one recording of a machine point. Throws the packages' typed errors for unusable input.
+ * Acceleration indicators are converted to the point's trend unit (accelerationTrendUnit), so a series
+ * keeps one unit when recordings arrive in g one day and m/s^2 the next.
+ */
 export function analyse(
   recording: Recording,
-  options: { model: MachineModel | null; pointId: string; speedRpm?: number },
+  options: { model: MachineModel | null; pointId: string; speedRpm?: number; pointUnit?: string | null },
 ): RecordingAnalysis {
   const opts: AnalyseOptions = { model: options.model, pointId: options.pointId, maxPlotPoints: MAX_PLOT_POINTS };
   if (options.speedRpm !== undefined) opts.speedRpm = options.speedRpm;
-  return analyseRecording(recording, opts);
+  const analysis = analyseRecording(recording, opts);
+  const from = analysis.overall.accelerationUnit;
+  const to = accelerationTrendUnit(options.pointUnit ?? null);
+  if (from !== to && isMotionUnit(from) && quantityOfUnit(from) === 'acceleration') {
+    const factor = convertUnit(1, from, to);
+    for (const name of ACCELERATION_INDICATORS) {
+      const v = analysis.indicators[name];
+      if (v !== undefined) analysis.indicators[name] = v * factor;
+    }
+  }
+  return analysis;
 }
 
 type IsoClass = { group: 1 | 2; foundation: 'rigid' | 'flexible' };

@@ -187,6 +187,7 @@ export async function ingestRecording(
     await runAnalysis(pool, recording, {
       model,
       pointId: input.point.pointKey,
+      pointUnit: input.point.unit,
       ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
     }),
   );
