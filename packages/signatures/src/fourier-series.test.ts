@@ -147,11 +147,14 @@ const piecewiseLinear = (continuous: boolean, maxSegments: number, maxValue: num
     values: fc.array(fc.double({ min: -maxValue, max: maxValue, noNaN: true }), { minLength: 2 * maxSegments, maxLength: 2 * maxSegments }),
     linear: fc.array(fc.boolean(), { minLength: maxSegments, maxLength: maxSegments }),
   }).map(({ cuts, values, linear }) => {
-    const edges = [0, ...[...cuts].sort((a, b) => a - b), 1];
+    // Drop cuts closer than 1e-6 to the previous edge before numbering the nodes, so that a skipped
+    // sliver can never break the shared node values of a continuous polygon.
+    const edges = [0];
+    for (const c of [...cuts].sort((a, b) => a - b)) if (c - edges[edges.length - 1]! >= 1e-6 && 1 - c >= 1e-6) edges.push(c);
+    edges.push(1);
     const segments: Segment[] = [];
     for (let i = 0; i + 1 < edges.length; i++) {
       const [startFraction, endFraction] = [edges[i]!, edges[i + 1]!];
-      if (endFraction - startFraction < 1e-6) continue;
       if (continuous) {
         // a closed polygon: node values shared by neighbours, the last node equal to the first
         const v0 = values[i]!;
