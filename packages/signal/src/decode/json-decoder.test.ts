@@ -78,6 +78,14 @@ describe('decodeJsonRecording', () => {
     expect(errorOf(() => decodeJsonRecording({ sampleRateHz: 10, channels: [{ samples: [Infinity] }] })).code).toBe('non_finite_sample');
   });
 
+  it('describes values a JSON text cannot hold when an object is handed in', () => {
+    const cyclic: Record<string, unknown> = {};
+    cyclic.self = cyclic;
+    const r = decodeJsonRecording({ sampleRateHz: 1, channels: [{ samples: [1] }], cyclic });
+    expect(r.metadata.cyclic).toBe('[object Object]');
+    expect(errorOf(() => decodeJsonRecording({ sampleRateHz: 1, channels: [{ samples: [1n] }] })).message).toMatch(/must be a number, not 1/);
+  });
+
   it('checks the limits', () => {
     const wide = { sampleRateHz: 1, channels: Array.from({ length: 3 }, () => ({ samples: [1, 2] })) };
     expect(errorOf(() => decodeJsonRecording(wide, { limits: { maxChannels: 2 } })).code).toBe('too_large');

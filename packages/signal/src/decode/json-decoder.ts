@@ -21,8 +21,17 @@ function schemaError(message: string, path: string): never {
   throw decodeError('json_schema', `${path}: ${message}`, path);
 }
 
+/** JSON text of a value for messages and metadata; objects handed in directly may hold BigInts or cycles. */
+function describe(value: unknown): string {
+  try {
+    return JSON.stringify(value) ?? String(value);
+  } catch {
+    return String(value);
+  }
+}
+
 function metadataValue(value: unknown): string {
-  return typeof value === 'string' ? value : JSON.stringify(value);
+  return typeof value === 'string' ? value : describe(value);
 }
 
 /**
@@ -84,7 +93,7 @@ export function decodeJsonRecording(input: string | Uint8Array | object, options
             `${path}.samples[${i}]`,
           );
         }
-        schemaError(`must be a number, not ${JSON.stringify(x)?.slice(0, 40) ?? typeof x}`, `${path}.samples[${i}]`);
+        schemaError(`must be a number, not ${describe(x).slice(0, 40)}`, `${path}.samples[${i}]`);
       }
       if (!Number.isFinite(x)) {
         throw decodeError('non_finite_sample', `${path}.samples[${i}] is ${x}; a recording must hold finite numbers only.`, `${path}.samples[${i}]`);
