@@ -224,6 +224,8 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     expect(await item.locator('progress').evaluate((p) => (p as HTMLProgressElement).value)).toBe(100);
     expect(await item.locator('.upload-summary[data-analysis-id]').count()).toBe(1);
     expect(await unlabelledControls(page)).toEqual([]);
+    const stops = await tabStops(page, 20);
+    for (const want of ['#up-machine', '#up-point', '#up-files']) expect(stops, `Tab reaches ${want}`).toContain(want);
     await page.screenshot({ path: join(shots, 'upload.png'), fullPage: true });
 
     // the analysis link opens the new recording on the machine page
@@ -261,13 +263,19 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
 
   it('lays out at tablet width without horizontal scrolling of the page', async () => {
     await page.setViewportSize({ width: 800, height: 1100 });
-    for (const [name, hash] of [['fleet', '#/fleet'], ['machine', null]] as const) {
+    const pages: Array<[string, string | null, string]> = [
+      ['fleet', '#/fleet', '#fleet-table tbody tr'],
+      ['machine', null, 'figure[data-chart="spectrum"]'],
+      ['signatures', '#/signatures', 'figure[data-chart="signature-lines"]'],
+      ['upload', '#/upload', '#dropzone'],
+    ];
+    for (const [name, hash, ready] of pages) {
       if (hash) await page.goto(`${service.url}${hash}`);
       else await page.locator('a.machine-link').first().click();
-      await page.locator(name === 'fleet' ? '#fleet-table tbody tr' : 'figure[data-chart="spectrum"]').first().waitFor();
+      await page.locator(ready).first().waitFor();
       await page.waitForTimeout(300);
       const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
-      expect(overflow).toBeLessThanOrEqual(1);
+      expect(overflow, `${name} page scrolls sideways by ${overflow} px`).toBeLessThanOrEqual(1);
       await page.screenshot({ path: join(shots, `${name}-tablet.png`), fullPage: true });
     }
     await page.setViewportSize({ width: 1280, height: 800 });
