@@ -187,8 +187,15 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
   const rangeFor = (kind: string, lines: PredictedLine[], xs: ArrayLike<number>): XBounds | null => {
     const kept = ranges.get(kind);
     if (kept) return kept;
-    if (lines.length === 0 || xs.length < 2) return null;
+    if (xs.length < 2) return null;
     const top = xs[xs.length - 1]!;
+    if (lines.length === 0) {
+      // Bearing defect rates and their first harmonics sit below about 40 × shaft speed, so an envelope
+      // spectrum opens there rather than on its whole (empty) band; "all" shows the rest.
+      if (kind !== 'envelope') return null;
+      const max = Math.max(200, 40 * (a.speedHz ?? 25));
+      return max < top * 0.6 ? { min: xs[0]!, max } : null;
+    }
     const last = Math.max(...lines.map((l) => l.x));
     const first = Math.min(...lines.map((l) => l.x));
     const max = Math.min(top, last + Math.max((last - first) * 0.25, last * 0.15));

@@ -11,14 +11,14 @@ import { zoneRank } from '../zone.js';
 // Fleet: one row per machine, ordered by concern; sortable headers, a text filter, a zone floor
 // and a "fault hypotheses only" switch; the fastest risers over the last weeks beside it.
 
-const columns: Array<{ key: SortKey | null; label: string; numeric?: boolean }> = [
-  { key: 'concern', label: 'Concern' },
-  { key: 'name', label: 'Machine' },
-  { key: 'zone', label: 'Worst zone' },
-  { key: 'score', label: 'Strongest hypothesis' },
-  { key: 'lastMeasured', label: 'Last measured' },
-  { key: 'alarms', label: 'Alarms', numeric: true },
-  { key: 'rise', label: 'Main indicator, recent weeks' },
+const columns: Array<{ key: SortKey | null; label: string; spoken: string; numeric?: boolean }> = [
+  { key: 'concern', label: 'Concern', spoken: 'concern' },
+  { key: 'name', label: 'Machine', spoken: 'machine name' },
+  { key: 'zone', label: 'Zone', spoken: 'worst zone' },
+  { key: 'score', label: 'Strongest hypothesis', spoken: 'score of the strongest hypothesis' },
+  { key: 'lastMeasured', label: 'Measured', spoken: 'time last measured' },
+  { key: 'alarms', label: 'Alarms', spoken: 'active alarms', numeric: true },
+  { key: 'rise', label: 'Main indicator, weekly', spoken: 'change of the main indicator' },
 ];
 
 function concernCell(m: MachineSummary): HTMLElement {
@@ -126,7 +126,7 @@ export async function renderFleetPage(main: HTMLElement, ctx: AppContext, route:
               type: 'button',
               class: 'sort',
               'data-sort': key,
-              'aria-label': `Sort by ${col.label.toLowerCase()}${active ? (direction === 'asc' ? ', now ascending' : ', now descending') : ''}`,
+              'aria-label': `Sort by ${col.spoken}${active ? (direction === 'asc' ? ', now ascending' : ', now descending') : ''}`,
               onclick: () => {
                 if (sortKey === key) direction = direction === 'asc' ? 'desc' : 'asc';
                 else {
