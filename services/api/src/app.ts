@@ -79,6 +79,16 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
   };
   app.addHook('onClose', async () => services.analysis.close());
 
+  // graceful shutdown: idle keep-alive connections close at once, busy ones right after their answer
+  let closing = false;
+  app.addHook('preClose', async () => {
+    closing = true;
+    app.server.closeIdleConnections?.();
+  });
+  app.addHook('onSend', async (_request, reply) => {
+    if (closing) reply.header('connection', 'close');
+  });
+
   await app.register(fastifySwagger, {
     openapi: {
       openapi: '3.1.0',
