@@ -217,7 +217,6 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     await page.locator('#up-point option').first().waitFor({ state: 'attached' });
     const sampleRateHz = 25600;
     const wav = pcm16Wav(sines([[24.5, 1], [441, 0.3]], sampleRateHz, 65536), sampleRateHz);
-    await page.getByLabel('Unit (CSV/raw)').fill('g');
     await page.locator('#up-files').setInputFiles({ name: 'field-check.wav', mimeType: 'audio/wav', buffer: wav });
     const item = page.locator('.upload-item[data-file="field-check.wav"]');
     await expect.poll(() => item.getAttribute('data-state'), { timeout: 30_000 }).toBe('done');

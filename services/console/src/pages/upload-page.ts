@@ -13,6 +13,20 @@ function formatBytes(n: number): string {
   return n < 1024 ? `${n} B` : n < 1024 ** 2 ? `${(n / 1024).toFixed(1)} KiB` : `${(n / 1024 ** 2).toFixed(1)} MiB`;
 }
 
+/** The summary's hypotheses: those at 0.5 or more as faults, the weaker ones folded away. */
+function hypothesisList(a: UploadResult['analysis']): HTMLElement {
+  const item = (x: UploadResult['analysis']['topHypotheses'][number]) =>
+    h('li', {}, scoreBadge(x.score), ` ${faultName(x.fault)} @ ${x.component}`, h('span', { class: 'muted' }, ` — ${x.reason}`));
+  const faults = a.topHypotheses.filter((x) => x.score >= 0.5);
+  const weaker = a.topHypotheses.filter((x) => x.score < 0.5);
+  return h(
+    'div',
+    { class: 'upload-hyps-box' },
+    faults.length ? h('ul', { class: 'upload-hyps', 'aria-label': 'Fault hypotheses' }, ...faults.map(item)) : h('p', { class: 'muted' }, 'No fault hypothesis reaches 0.5.'),
+    weaker.length ? h('details', {}, h('summary', {}, `Weaker hypotheses (${weaker.length})`), h('ul', { class: 'upload-hyps' }, ...weaker.map(item))) : null,
+  );
+}
+
 export async function renderUploadPage(main: HTMLElement, ctx: AppContext, route: Route): Promise<Cleanup> {
   const machines = await ctx.machines();
   const aborts = new Set<() => void>();
@@ -114,9 +128,7 @@ export async function renderUploadPage(main: HTMLElement, ctx: AppContext, route
             ' · ',
             h('a', { href: routeHref('machine', machineId, { point: pointId, recording: r.recordingId }) }, 'open the analysis'),
           ),
-          a.topHypotheses.length
-            ? h('ul', { class: 'upload-hyps' }, ...a.topHypotheses.map((x) => h('li', {}, scoreBadge(x.score), ` ${faultName(x.fault)} @ ${x.component}`, h('span', { class: 'muted' }, ` — ${x.reason}`))))
-            : h('p', { class: 'muted' }, 'No fault hypothesis reaches 0.5.'),
+          hypothesisList(a),
         );
       })
       .catch((err: unknown) => {
