@@ -144,3 +144,38 @@ export function evaluationCases(models: Readonly<Record<string, MachineModel>>, 
     first.find((c) => c.fault === 'unbalance' && c.severity === 1)!,
   ];
 }
+
+/** A recording whose speed ramps during the record, with a once-per-rev tach channel (issue 7: order tracking). */
+export interface RampCase {
+  id: string;
+  machine: string;
+  pointId: string;
+  fault: 'healthy' | 'gear-missing-tooth' | 'bearing-outer-race';
+  component: string | null;
+  severity: number;
+  rampRpm: [number, number];
+  sampleRateHz: number;
+  durationS: number;
+  seed: number;
+}
+
+/** Run-ups and run-downs of about 5 %: enough to smear the mesh sidebands of a frequency spectrum over many bins. */
+export function rampCases(): RampCase[] {
+  const out: RampCase[] = [];
+  let seed = 5000;
+  const add = (machine: string, pointId: string, fault: RampCase['fault'], component: string | null, severity: number, rampRpm: [number, number]) => {
+    seed += 1;
+    out.push({ id: `${machine}/${pointId}/${fault}${component ? `@${component}` : ''}/s${severity}/${rampRpm.join('-')}rpm`, machine, pointId, fault, component, severity, rampRpm, sampleRateHz: 25600, durationS: 4, seed });
+  };
+  for (const ramp of [[1400, 1490], [1490, 1410]] as Array<[number, number]>) {
+    add('aeration-mixer-2', 'gb-input-h', 'healthy', null, 0, ramp);
+    add('aeration-mixer-2', 'gb-input-h', 'gear-missing-tooth', 'pinion-1', 1, ramp);
+    add('aeration-mixer-2', 'gb-input-h', 'gear-missing-tooth', 'pinion-1', 0.7, ramp);
+    add('aeration-mixer-2', 'gb-input-h', 'bearing-outer-race', 'input-de', 1, ramp);
+  }
+  for (const ramp of [[1420, 1500], [1500, 1420]] as Array<[number, number]>) {
+    add('skelmere-conveyor-drive-2', 'gb-input-h', 'healthy', null, 0, ramp);
+    add('skelmere-conveyor-drive-2', 'gb-input-h', 'gear-missing-tooth', 'hs-pinion', 1, ramp);
+  }
+  return out;
+}

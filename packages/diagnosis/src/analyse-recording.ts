@@ -18,6 +18,7 @@ import {
   quantityOfUnit,
   welchSpectrum,
   withScaling,
+  type PulseSpeed,
   type Recording,
   type Spectrum,
 } from '@kinespec/signal';
@@ -30,6 +31,7 @@ import { DiagnosisInputError } from './errors.js';
 import { evidenceOf, scoreCandidates, type Candidate } from './hypothesis-score.js';
 import { gradeSeverity, isoBandHz } from './iso-zones.js';
 import { lineToleranceHz, matchableSpectrum, matchLine, type LineMatch, type MatchableSpectrum } from './line-matching.js';
+import { angleSpectra, type AngleSpectra } from './order-tracking.js';
 import { reasonFor } from './reason.js';
 import type { Hypothesis, RecordingAnalysis, SpeedSource } from './recording-analysis.js';
 import { speedFromSpectrum } from './running-speed.js';
@@ -54,6 +56,8 @@ export interface AnalyseOptions {
   baseline?: RecordingAnalysis | null;
   /** Most points of each plotted spectrum (default 2048). */
   maxPlotPoints?: number;
+  /** 'auto' (default): the angle domain when a tach or encoder channel gives pulses; 'frequency' forces the frequency domain. */
+  domain?: 'auto' | 'frequency' | 'angle';
 }
 
 /** Lines closer than this SNR to the floor are not peaks worth listing or matching. */
@@ -135,9 +139,24 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
     envelope = envelopeAnalysis(samples, fs, unit, model, point, speedHz, warnings);
   }
 
+  // The angle domain: with tach or encoder pulses, match in orders of the reference shaft (no speed error, no smearing).
+  const wantAngle = options.domain === 'angle' || (options.domain !== 'frequency' && speed?.pulses !== undefined);
+  let angle: AngleSpectra | null = null;
+  if (wantAngle && model && speed?.pulses) {
+    const ratios = shaftRatios(model).map((r) => r.ratio);
+    try {
+      angle = angleSpectra(samples, fs, unit, speed.pulses, { envelopeBandHz: envelope?.band.bandHz ?? null, slowestOrder: Math.min(1, ...ratios) });
+      if (!angle) warnings.push('the record holds fewer than 4 revolutions: analysed in the frequency domain');
+    } catch (err) {
+      warnings.push(`order tracking failed (${err instanceof Error ? err.message : String(err)}): analysed in the frequency domain`);
+    }
+  } else if (options.domain === 'angle') {
+    warnings.push('the angle domain needs a tach or encoder channel: analysed in the frequency domain');
+  }
+
   // Hypotheses.
   let hypotheses: Hypothesis[] = [];
-  let matchedHz: number[] = [];
+  const matchedHz: number[] = [];
   let catalogue: ReturnType<typeof catalogueLines> = [];
   if (model && speedHz !== null && point) {
     const uncertaintyHz = speed?.uncertaintyHz ?? 0.02 * speedHz;
@@ -150,36 +169,55 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
       maxLines: 48,
     };
     const candidates = buildCandidates(model, point, speedHz, unit, limits, warnings);
-    const cepstrum = powerCepstrumOf(spectrum);
     const isoAb = severity.boundaries?.abMmPerS ?? 1.4;
-    const scored = scoreCandidates(candidates, {
-      spectra: { spectrum: measured, envelope: envelope?.measured ?? null },
-      speedUncertaintyHz: uncertaintyHz,
+    // In the angle domain every frequency is an order (Hz of the reference shaft = 1) and converts back by the mean speed.
+    const unitHz = angle ? speedHz : 1;
+    const lineSpeed = angle ? 1 : speedHz;
+    const lineCatalogue = angle ? catalogueLines(model, 1) : catalogue;
+    const main = angle ? angle.measured : measured;
+    const envelopeMeasured = angle ? angle.envelope?.measured ?? null : envelope?.measured ?? null;
+    const speedSpread = speed?.spreadHz ?? 0;
+    const scoringCandidates: Candidate[] = angle
+      ? candidates.map((c) => ({
+        ...c,
+        lines: c.lines.map((l) => ({
+          ...l,
+          frequencyHz: l.frequencyHz / speedHz,
+          // A fixed-frequency line (2 × line frequency) wanders in orders as the speed does.
+          relativeSpreadFraction: (l.relativeSpreadFraction ?? 0) + (l.order === 0 ? speedSpread / speedHz : 0),
+        })),
+      }))
+      : candidates;
+    const cepstrum = powerCepstrumOf(main.spectrum);
+    const scored = scoreCandidates(scoringCandidates, {
+      spectra: { spectrum: main, envelope: envelopeMeasured },
+      speedUncertaintyHz: angle ? 0 : uncertaintyHz,
       catalogue: {
-        spectrum: new LineCatalogue(catalogue.filter((l) => !l.bearing)),
-        envelope: new LineCatalogue(catalogue.filter((l) => l.bearing || l.shaftHarmonic)),
+        spectrum: new LineCatalogue(lineCatalogue.filter((l) => !l.bearing)),
+        envelope: new LineCatalogue(lineCatalogue.filter((l) => l.bearing || l.shaftHarmonic)),
       },
-      runningLines: new LineCatalogue(runningLines(model, speedHz)),
+      runningLines: new LineCatalogue(runningLines(model, lineSpeed)),
       minSnrDb: MIN_SNR_DB,
-      level: (c, matches) => levelOf(c, matches, unit, isoAb, options.baseline ?? null, { model, speedHz, measured, uncertaintyHz }),
-      support: (c) => supportOf(c, model, speedHz, cepstrum),
+      level: (c, matches) => levelOf(c, matches, unit, isoAb, options.baseline ?? null, { model, speedHz: lineSpeed, measured: main, uncertaintyHz: angle ? 0 : uncertaintyHz, unitHz }),
+      support: (c) => supportOf(c, model, lineSpeed, cepstrum),
     });
     hypotheses = scored
       .map((s) => {
+        const domain = angle && s.candidate.domain === 'spectrum' ? 'order' : s.candidate.domain;
         const hypothesis: Hypothesis = {
           fault: s.candidate.fault,
           component: s.candidate.component,
           score: Math.round(s.score * 1000) / 1000,
           reason: '',
-          domain: s.candidate.domain,
-          evidence: evidenceOf(s),
+          domain,
+          evidence: evidenceOf(s, unitHz),
           parts: roundParts(s.parts),
         };
-        hypothesis.reason = reasonFor(hypothesis, s.matches);
+        hypothesis.reason = reasonFor(hypothesis, s.matches, unitHz);
         return hypothesis;
       })
       .sort((a, b) => b.score - a.score || a.fault.localeCompare(b.fault) || a.component.localeCompare(b.component));
-    for (const s of scored) for (const m of s.matches) if (m.matched && s.candidate.domain === 'spectrum') matchedHz.push(m.measuredHz!);
+    for (const s of scored) for (const m of s.matches) if (m.matched && s.candidate.domain === 'spectrum') matchedHz.push(m.measuredHz! * unitHz);
   } else if (model && !point) {
     warnings.push('the model has no vibration point for this channel; no fault hypotheses scored');
   }
@@ -208,7 +246,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
     speedHz,
     speedSource,
     ...(speed ? { speedUncertaintyHz: speed.uncertaintyHz } : {}),
-    domain: 'frequency',
+    domain: angle ? 'angle' : 'frequency',
     overall: {
       velocityRmsMmPerS,
       bandHz: band,
@@ -237,6 +275,10 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
     channel: channelIndex,
     pointId: point?.id ?? null,
   };
+  if (angle) {
+    const p = downsampleForPlot({ frequenciesHz: angle.orders.orders, values: angle.orders.values }, maxPlotPoints);
+    analysis.orderSpectrum = { shaft: model!.speed.shaft, orders: Array.from(p.frequenciesHz), values: Array.from(p.values) };
+  }
   if (envelope) {
     const p = downsampleForPlot(envelope.spectrum, maxPlotPoints);
     analysis.envelopeSpectrum = {
@@ -325,6 +367,10 @@ interface RunningSpeed {
   speedHz: number;
   uncertaintyHz: number;
   source: SpeedSource;
+  /** Pulses of a tach or encoder channel, for order tracking. */
+  pulses?: PulseSpeed;
+  /** Spread (max − min) of the smoothed speed over the record, Hz. */
+  spreadHz?: number;
 }
 
 function runningSpeed(
@@ -337,7 +383,7 @@ function runningSpeed(
 ): RunningSpeed {
   if (tachIndex !== null) {
     const tach = speedFromTach(recording, tachIndex, model, options.pulsesPerRev, warnings);
-    if (tach) return tach;
+    if (tach) return { speedHz: tach.speedHz, uncertaintyHz: tach.uncertaintyHz, source: tach.source, pulses: tach.pulses, spreadHz: tach.spreadHz };
   }
   const range = speedRangeRpm(model);
   const searchRpm: [number, number] = options.speedRpm !== undefined
@@ -454,7 +500,7 @@ function levelOf(
   unit: string,
   isoAbMmPerS: number,
   baseline: RecordingAnalysis | null,
-  context: { model: MachineModel; speedHz: number; measured: MatchableSpectrum; uncertaintyHz: number },
+  context: { model: MachineModel; speedHz: number; measured: MatchableSpectrum; uncertaintyHz: number; unitHz: number },
 ): number {
   if (baseline) {
     const before = baseline.hypotheses.find((h) => h.fault === candidate.fault && h.component === candidate.component);
@@ -473,7 +519,7 @@ function levelOf(
   if (candidate.domain !== 'spectrum' || !['unbalance', 'misalignment', 'looseness', 'electrical'].includes(candidate.fault)) return 1;
   // Faults that every running machine shows a little of (residual unbalance, 1× and 2×, twice line frequency) count
   // only when their lines carry real vibration: from a quarter of the ISO A/B boundary (nothing) to the boundary itself (all).
-  const velocities = matches.filter((m) => m.matched).map((m) => velocityRmsOfLine(m.measuredAmplitude!, m.measuredHz!, unit));
+  const velocities = matches.filter((m) => m.matched).map((m) => velocityRmsOfLine(m.measuredAmplitude!, m.measuredHz! * context.unitHz, unit));
   const v = Math.sqrt(energy(velocities));
   if (!(v > 0)) return 0;
   return Math.max(0, Math.min(1, Math.log(v / (0.25 * isoAbMmPerS)) / Math.log(4)));
@@ -498,7 +544,7 @@ function wearLevel(matches: readonly LineMatch[]): number {
 /** Spread allowed between the measured and the predicted depth of a tooth drop (natural-log units, a factor 2). */
 const DEPTH_SPREAD_LN = 0.7;
 /** Depth (fraction of a full drop) from which the gear's own mesh counts as fully modulated. */
-const OWN_MESH_DEPTH = 0.25;
+const OWN_MESH_DEPTH = 0.1;
 /** Sidebands each side of the mesh line used for the depth, at most (and at most Z/2). */
 const DEPTH_SIDEBANDS = 12;
 
@@ -510,9 +556,9 @@ const DEPTH_SIDEBANDS = 12;
  * that families of neighbouring mesh harmonics, which overlap with random phases, average out rather than decide).
  * fit = exp(−ln²(d̂/d)/(2·0.7²)) for d = 1 (missing) and 0.5 (broken, the depths of @kinespec/signatures); each
  * hypothesis keeps fit/max(fit of both): the depth chooses between them and never lowers the better of the two;
- * both are scaled by min(1, d̂/0.25), since a tooth fault must modulate its own mesh (a gear's comb of shaft
- * harmonics is shared with every other gear on the same shaft), and by d̂ over the largest d̂ of the gears on
- * that shaft (the most deeply modulated mesh holds the fault). Without a measured mesh line it is 1.
+ * both are scaled by min(1, d̂/0.1), since a tooth fault must modulate its own mesh (a gear's comb of shaft
+ * harmonics is shared with every other gear on the same shaft), and by its sideband-to-mesh-line ratio d̂/Z over
+ * the largest of the gears on that shaft (the most deeply modulated mesh holds the fault). Without a measured mesh line it is 1.
  */
 function toothDropLevel(
   candidate: Candidate,
@@ -526,15 +572,21 @@ function toothDropLevel(
     return Math.exp(-(ln * ln) / (2 * DEPTH_SPREAD_LN * DEPTH_SPREAD_LN));
   };
   const best = Math.max(fit(TOOTH_DROP_DEPTH['gear-missing-tooth']), fit(TOOTH_DROP_DEPTH['gear-broken-tooth']));
-  // A tooth fault modulates its own mesh: with next to no sidebands there (d̂ under a quarter of a full drop),
+  // A tooth fault modulates its own mesh: with next to no sidebands there (d̂ under a tenth of a full drop),
   // lines elsewhere on the same shaft belong to another gear on it.
   // Of several gears on one shaft, the one whose mesh is modulated most deeply is the likelier.
   const { model } = context;
   const shaft = model.gearMeshes.flatMap((m) => [m.driver, m.driven]).find((g) => g.gear === candidate.component)?.shaft;
   const siblings = model.gearMeshes.flatMap((m) => [m.driver, m.driven]).filter((g) => g.shaft === shaft && g.gear !== candidate.component);
-  const deepest = Math.max(measuredDepth, ...siblings.map((g) => toothDropDepth(g.gear, context) ?? 0));
-  const onOwnMesh = Math.min(1, measuredDepth / OWN_MESH_DEPTH) * (deepest > 0 ? measuredDepth / deepest : 1);
+  // Compared as sideband-to-mesh-line ratios (d̂/Z): a gear with many teeth would otherwise win on its tooth count.
+  const own = measuredDepth / teethOf(model, candidate.component);
+  const deepest = Math.max(own, ...siblings.map((g) => (toothDropDepth(g.gear, context) ?? 0) / g.teeth));
+  const onOwnMesh = Math.min(1, measuredDepth / OWN_MESH_DEPTH) * (deepest > 0 ? own / deepest : 1);
   return (fit(depth) / best) * onOwnMesh;
+}
+
+function teethOf(model: MachineModel, gearId: string): number {
+  return model.gearMeshes.flatMap((m) => [m.driver, m.driven]).find((g) => g.gear === gearId)?.teeth ?? 1;
 }
 
 /** The depth d̂ of a gear's tooth drop read from the sidebands of its mesh line (see toothDropLevel), or null. */

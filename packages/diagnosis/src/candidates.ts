@@ -28,6 +28,14 @@ const BEARING_SLIP_FRACTION = 0.015;
 export const TOOTH_DROP_DEPTH = { 'gear-missing-tooth': 1, 'gear-broken-tooth': 0.5 } as const;
 
 /**
+ * Mesh-frequency ripple (transmission error) assumed under a tooth fault, as a fraction of the mean mesh torque:
+ * every real mesh has one, and the fault's sidebands around the mesh frequency are its modulation (common
+ * practice; Randall 2011 ch. 2, from memory). 0.1 is the ripple @kinespec/signatures assumes for its eccentricity
+ * and wear templates; without it the prediction holds only the comb of the torque drop itself.
+ */
+export const MESH_RIPPLE_FRACTION = 0.1;
+
+/**
  * Every (fault, component) candidate of the model with its predicted lines at the running speed
  * (@kinespec/signatures predictSignature at the measurement point), kept to the lines the spectra can show,
  * in the unit of the channel analysed.
@@ -129,7 +137,7 @@ function predictions(model: MachineModel, point: Point, speedHz: number): Predic
           component: candidate.component,
           speedRpm: gridHz * 60,
           point: point.id,
-          ...(candidate.fault === 'gear-missing-tooth' || candidate.fault === 'gear-broken-tooth' ? { depthFraction: TOOTH_DROP_DEPTH[candidate.fault] } : {}),
+          ...(candidate.fault === 'gear-missing-tooth' || candidate.fault === 'gear-broken-tooth' ? { depthFraction: TOOTH_DROP_DEPTH[candidate.fault], rippleFraction: MESH_RIPPLE_FRACTION } : {}),
         });
         return { candidate, signature, speedRatio: 1 };
       } catch (err) {

@@ -139,18 +139,30 @@ function matchCandidate(candidate: Candidate, inputs: ScoringInputs): Matched {
 }
 
 /**
- * How well the measured relative amplitudes follow the predicted ones: (1 + r)/2 with r the Pearson correlation
- * of log predicted and log measured amplitudes (an unmatched line enters at its upper bound, the floor there).
- * With fewer than three lines, or fewer than two matched, relative amplitudes say nothing: 1.
+ * How well the measured relative amplitudes follow the predicted ones, on log amplitudes (an unmatched line enters
+ * at its upper bound, the floor there):
+ *  - five lines or more: (1 + r)/2, r the Pearson correlation of log predicted and log measured amplitudes (the trend
+ *    of a long family, robust to the level the model cannot know);
+ *  - three or four lines: exp(−e²/(2·12²)), e the r.m.s. misfit in dB after the best common scale (with so few
+ *    points a correlation says little, while a 2× line 30 dB under 1× plainly is not misalignment);
+ *  - fewer than three lines, or fewer than two matched: 1 (relative sizes say nothing).
  */
 function shapeOf(matches: readonly LineMatch[]): number {
   const usable = matches.filter((m) => m.predictedAmplitude > 0 && (m.measuredAmplitude ?? m.upperBoundAmplitude) > 0);
   if (usable.length < 3 || usable.filter((m) => m.matched).length < 2) return 1;
   const x = usable.map((m) => Math.log(m.predictedAmplitude));
   const y = usable.map((m) => Math.log(m.measuredAmplitude ?? m.upperBoundAmplitude));
-  const r = pearson(x, y);
-  return Number.isFinite(r) ? (1 + r) / 2 : 1;
+  if (usable.length >= 5) {
+    const r = pearson(x, y);
+    return Number.isFinite(r) ? (1 + r) / 2 : 1;
+  }
+  const offset = y.reduce((a, v, i) => a + (v - x[i]!), 0) / y.length;
+  const misfitDb = Math.sqrt(y.reduce((a, v, i) => a + (v - x[i]! - offset) ** 2, 0) / y.length) * (20 / Math.LN10);
+  return Math.exp(-(misfitDb * misfitDb) / (2 * FEW_LINES_MISFIT_DB * FEW_LINES_MISFIT_DB));
 }
+
+/** Misfit (dB r.m.s.) at which a short pattern's shape falls to exp(−½) ≈ 0.61. */
+const FEW_LINES_MISFIT_DB = 12;
 
 function pearson(x: readonly number[], y: readonly number[]): number {
   const n = x.length;
@@ -228,17 +240,17 @@ function clamp01(x: number): number {
   return Number.isFinite(x) ? Math.min(1, Math.max(0, x)) : 0;
 }
 
-/** Evidence rows of a scored candidate, strongest predicted line first (at most `limit`). */
-export function evidenceOf(scored: ScoredCandidate, limit = 40): Evidence[] {
+/** Evidence rows of a scored candidate, strongest predicted line first (at most `limit`); `unitHz` turns orders into Hz. */
+export function evidenceOf(scored: ScoredCandidate, unitHz = 1, limit = 40): Evidence[] {
   return [...scored.matches]
     .sort((a, b) => b.predictedAmplitude - a.predictedAmplitude)
     .slice(0, limit)
     .map((m) => ({
       label: m.label,
-      frequencyHz: m.predictedHz,
+      frequencyHz: m.predictedHz * unitHz,
       predicted: m.predictedAmplitude,
       measured: m.measuredAmplitude,
-      measuredFrequencyHz: m.measuredHz,
+      measuredFrequencyHz: m.measuredHz === null ? null : m.measuredHz * unitHz,
       snrDb: Number.isFinite(m.snrDb) ? Math.round(m.snrDb * 10) / 10 : null,
       matched: m.matched,
       ...(m.ambiguous ? { ambiguous: true, ambiguousWith: m.ambiguousWith.slice(0, 3) } : {}),

@@ -21,7 +21,7 @@ function hz(x: number): string {
 }
 
 /** One plain-language sentence saying why a hypothesis scored as it did. */
-export function reasonFor(h: Hypothesis, matches: ReadonlyArray<LineMatch & { ambiguous?: boolean }>): string {
+export function reasonFor(h: Hypothesis, matches: ReadonlyArray<LineMatch & { ambiguous?: boolean }>, unitHz = 1): string {
   const what = `${faultNames[h.fault] ?? h.fault} in ${h.component}`;
   const where = h.domain === 'envelope' ? 'envelope spectrum' : h.domain === 'order' ? 'order spectrum' : 'spectrum';
   const found = matches.filter((m) => m.matched).sort((a, b) => b.snrDb - a.snrDb);
@@ -30,7 +30,7 @@ export function reasonFor(h: Hypothesis, matches: ReadonlyArray<LineMatch & { am
   if (found.length === 0) return `None of the ${total} lines predicted for ${what} stands above the noise in the ${where}.`;
   const best = found
     .slice(0, 3)
-    .map((m) => `${m.label} at ${hz(m.measuredHz!)} Hz (${m.snrDb.toFixed(0)} dB)`)
+    .map((m) => `${m.label} at ${hz(m.measuredHz! * unitHz)} Hz (${m.snrDb.toFixed(0)} dB)`)
     .join(', ');
   const p = h.parts;
   let caveat = '';

@@ -1,0 +1,129 @@
+import { readFileSync } from 'node:fs';
+import { componentLines, loadMachineModel } from '@kinespec/kinematics';
+import type { Recording } from '@kinespec/signal';
+import { describe, expect, it } from 'vitest';
+import { add, gaussianNoise, impactTrain, sine } from '../test/signals.js';
+import { analyseRecording, SOFTWARE_VERSION } from './analyse-recording.js';
+import { DiagnosisInputError } from './errors.js';
+
+const model = loadMachineModel(readFileSync(new URL('../../../fixtures/machines/aeration-mixer-2.json', import.meta.url), 'utf8'));
+const fs = 25600;
+const n = 65536;
+
+/** The example machine's running lines at a speed: 1× and 2× of each shaft, the mesh tones, plus noise (in g). */
+function runningMachine(speedHz: number, seed: number): Float64Array {
+  const x = gaussianNoise(n, seed, 0.01);
+  componentLines(model, speedHz)
+    .filter((l) => (l.family === 'shaft-harmonic' && l.harmonic <= 2) || l.family === 'gear-mesh')
+    .forEach((l, j) => {
+      const a = l.family === 'gear-mesh' ? 0.1 / l.harmonic : 0.004;
+      const tone = sine(n, fs, l.frequencyHz, a, j);
+      for (let i = 0; i < n; i++) x[i] += tone[i]!;
+    });
+  return x;
+}
+
+function recording(samples: Float64Array, extra: Recording['channels'] = []): Recording {
+  return { sampleRateHz: fs, channels: [{ name: 'gb-input-h', unit: 'g', samples }, ...extra], metadata: {} };
+}
+
+describe('analyseRecording', () => {
+  const speedHz = (1480 * 0.985) / 60;
+  const healthy = analyseRecording(recording(runningMachine(speedHz, 1)), { model, pointId: 'gb-input-h' });
+
+  it('returns the contract object: speed, overall with zone, indicators, plot spectrum, hypotheses, warnings', () => {
+    expect(healthy.softwareVersion).toBe(SOFTWARE_VERSION);
+    expect(healthy.domain).toBe('frequency');
+    expect(healthy.speedSource).toBe('spectrum');
+    expect(healthy.overall.bandHz).toEqual([10, 1000]);
+    expect(['A', 'B', 'C', 'D']).toContain(healthy.overall.zone);
+    expect(healthy.overall.accelerationUnit).toBe('g');
+    expect(healthy.spectrum.scaling).toBe('peak');
+    expect(healthy.spectrum.frequenciesHz.length).toBeLessThanOrEqual(2048);
+    expect(healthy.envelopeSpectrum?.bandSource).toBe('resonance');
+    for (const key of ['velocity_rms_mm_per_s', 'acceleration_peak', 'crest_factor', 'kurtosis', 'envelope_rms']) {
+      expect(Number.isFinite(healthy.indicators[key])).toBe(true);
+    }
+    expect(healthy.hypotheses.length).toBeGreaterThan(20);
+    for (const h of healthy.hypotheses) expect(healthy.indicators[`score:${h.fault}:${h.component}`]).toBe(h.score);
+    for (let i = 1; i < healthy.hypotheses.length; i++) expect(healthy.hypotheses[i - 1]!.score).toBeGreaterThanOrEqual(healthy.hypotheses[i]!.score);
+  });
+
+  it('finds the running speed off nameplate from the spectrum alone (1.5 % slow)', () => {
+    expect(Math.abs(healthy.speedHz! - speedHz) / speedHz).toBeLessThan(2e-4);
+    expect(healthy.speedUncertaintyHz).toBeGreaterThan(0);
+  });
+
+  it('scores every gear and bearing fault below 0.5 on a machine that shows only its running lines', () => {
+    for (const h of healthy.hypotheses) if (h.fault.startsWith('gear-') || h.fault.startsWith('bearing-')) expect(h.score).toBeLessThan(0.5);
+  });
+
+  it('gives every hypothesis a reason and evidence rows with predicted, measured and SNR', () => {
+    for (const h of healthy.hypotheses) {
+      expect(h.reason).toMatch(/\.$/);
+      for (const e of h.evidence) {
+        expect(e).toHaveProperty('frequencyHz');
+        expect(e).toHaveProperty('predicted');
+        expect(e).toHaveProperty('measured');
+        expect(e).toHaveProperty('snrDb');
+      }
+    }
+  });
+
+  it('finds an outer-race defect of input-de in the envelope spectrum, with BPFO and its harmonics as evidence (Randall & Antoni 2011)', () => {
+    // Impacts at BPFO of input-de (9 elements, 7.94/39.04 mm: BPFO = 4.5·(1 − 0.2034) = 3.5848 orders of its shaft),
+    // 1.5 % random slip, ringing the point's 3.4 kHz resonance (Randall & Antoni 2011, §2.1).
+    const inputHz = speedHz * 0.72 * 0.99;
+    const bpfoHz = 4.5 * (1 - 7.94 / 39.04) * inputHz;
+    const impacts = impactTrain({ sampleRateHz: fs, length: n, rateHz: bpfoHz, resonanceHz: 3400, dampingRatio: 0.05, amplitude: 0.8, jitterFraction: 0.015, seed: 4 });
+    const a = analyseRecording(recording(add(runningMachine(speedHz, 2), impacts)), { model, pointId: 'gb-input-h' });
+    const top = a.hypotheses[0]!;
+    expect(top).toMatchObject({ fault: 'bearing-outer-race', component: 'input-de', domain: 'envelope' });
+    expect(top.score).toBeGreaterThanOrEqual(0.5);
+    for (const k of [1, 2, 3]) {
+      const line = top.evidence.find((e) => e.label === `${k}×BPFO input-de`)!;
+      expect(line.matched).toBe(true);
+      expect(Math.abs(line.measuredFrequencyHz! - k * bpfoHz) / (k * bpfoHz)).toBeLessThan(0.02);
+    }
+    expect(top.reason).toMatch(/outer-race defect in input-de/);
+  });
+
+  it('reads the speed from a once-per-rev tach channel and order-tracks in the angle domain', () => {
+    const tach = new Float64Array(n);
+    // 5 V pulse at each revolution of the reference shaft (motor), 1 ms wide.
+    for (let r = 0; r * fs < n * speedHz; r++) {
+      const i0 = Math.round((r * fs) / speedHz);
+      for (let i = i0; i < Math.min(n, i0 + 26); i++) tach[i] = 5;
+    }
+    const a = analyseRecording(recording(runningMachine(speedHz, 3), [{ name: 'tach', unit: 'V', samples: tach }]), { model, pointId: 'gb-input-h', tachChannel: 1 });
+    expect(a.speedSource).toBe('tach');
+    expect(Math.abs(a.speedHz! - speedHz) / speedHz).toBeLessThan(1e-3);
+    expect(a.domain).toBe('angle');
+    expect(a.orderSpectrum?.shaft).toBe('motor');
+    expect(a.hypotheses.some((h) => h.domain === 'order')).toBe(true);
+  });
+
+  it('without a model gives no hypotheses and no speed, but still the overall level and spectrum', () => {
+    const a = analyseRecording(recording(runningMachine(speedHz, 5)));
+    expect(a.hypotheses).toEqual([]);
+    expect(a.speedHz).toBeNull();
+    expect(a.speedSource).toBeNull();
+    expect(a.overall.zone).toBeNull();
+    expect(a.overall.velocityRmsMmPerS).toBeGreaterThan(0);
+  });
+
+  it('is deterministic: the same recording gives the same analysis', () => {
+    const x = runningMachine(speedHz, 6);
+    expect(JSON.stringify(analyseRecording(recording(x), { model, pointId: 'gb-input-h' }))).toBe(JSON.stringify(analyseRecording(recording(x), { model, pointId: 'gb-input-h' })));
+  });
+
+  it('rejects an unknown point, channel or a too short record with a typed error naming it', () => {
+    const r = recording(runningMachine(speedHz, 7));
+    expect(() => analyseRecording(r, { model, pointId: 'nowhere' })).toThrow(DiagnosisInputError);
+    expect(() => analyseRecording(r, { model, pointId: 'nowhere' })).toThrow(/pointId 'nowhere'/);
+    expect(() => analyseRecording(r, { model, channel: 3 })).toThrow(/channel \(3\)/);
+    expect(() => analyseRecording(recording(new Float64Array(100)), { model })).toThrow(/1024/);
+    expect(() => analyseRecording({ sampleRateHz: fs, channels: [], metadata: {} })).toThrow(/channel/);
+    expect(() => analyseRecording({ sampleRateHz: fs, channels: [{ name: 'x', unit: 'V', samples: new Float64Array(2048) }], metadata: {} })).toThrow(/unit 'V'/);
+  });
+});
