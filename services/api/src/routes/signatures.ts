@@ -1,23 +1,15 @@
-import * as signatures from '@kinespec/signatures';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
 import type { Services } from '../app.js';
 import { problem } from '../problems.js';
 import { idParam } from '../schemas.js';
+import { faultList, signatureView } from '../signature-view.js';
 import { findMachine } from '../store.js';
 
 /*
  * Predicted fault signatures of a machine's current model (the signature explorer of the console).
- * Thin: the machine's model goes to @kinespec/signatures, its answer comes back as JSON.
+ * Thin: the machine's model goes to @kinespec/signatures (through signature-view.ts), its answer comes back as JSON.
  */
-
-const exported = signatures as unknown as Record<string, unknown>;
-
-function signaturesFunction<T>(name: string): T {
-  const f = exported[name];
-  if (typeof f !== 'function') throw problem('service-unavailable', `signature prediction (${name}) is not available in this build`);
-  return f as T;
-}
 
 /** Named errors of the packages (bad fault, unknown component) are the caller's: 400. */
 function callPackage<T>(f: () => T): T {
@@ -54,8 +46,7 @@ export const signatureRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
     },
   }, async (request) => {
     const model = await modelOf(request.apiKey!.siteId, request.query.machine);
-    const faultCandidates = signaturesFunction<(m: unknown) => Array<{ fault: string; component: string }>>('faultCandidates');
-    return callPackage(() => faultCandidates(model));
+    return callPackage(() => faultList(model));
   });
 
   app.get('/signatures', {
@@ -76,16 +67,15 @@ export const signatureRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
   }, async (request) => {
     const q = request.query;
     const model = await modelOf(request.apiKey!.siteId, q.machine);
-    const predictSignature = signaturesFunction<(m: unknown, o: Record<string, unknown>) => Record<string, unknown>>('predictSignature');
-    const options: Record<string, unknown> = { fault: q.fault, component: q.component };
-    if (q.speedRpm !== undefined) options['speedRpm'] = q.speedRpm;
-    if (q.point !== undefined) options['pointId'] = q.point;
-    if (q.harmonics !== undefined) options['harmonics'] = q.harmonics;
-    const signature = callPackage(() => predictSignature(model, options));
-    const campbellData = exported['campbellData'];
-    if (typeof campbellData === 'function' && signature['campbell'] === undefined) {
-      signature['campbell'] = callPackage(() => (campbellData as (m: unknown, o: Record<string, unknown>) => unknown)(model, options));
-    }
+    const signature = callPackage(() =>
+      signatureView(model, {
+        fault: q.fault,
+        component: q.component,
+        ...(q.speedRpm !== undefined ? { speedRpm: q.speedRpm } : {}),
+        ...(q.point !== undefined ? { point: q.point } : {}),
+        ...(q.harmonics !== undefined ? { harmonics: q.harmonics } : {}),
+      }),
+    );
     return signature as { lines: Array<{ frequencyHz: number }> };
   });
 };
