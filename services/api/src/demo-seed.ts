@@ -70,7 +70,15 @@ async function inject(app: FastifyInstance, request: InjectOptions): Promise<unk
 }
 
 /** Seeds the demo site through the HTTP API; returns the demo keys (shown once). */
-export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string, options: { adminKey: string; now?: Date; parallel?: number }): Promise<DemoKeys> {
+export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string, options: {
+    adminKey: string;
+    now?: Date;
+    parallel?: number;
+    /** Only these machines (model ids); default all (tests seed a part). */
+    machines?: string[];
+    /** Only these slots (0 = the oldest, 2 x 12 - 1 = the newest); default all. */
+    slots?: number[];
+  }): Promise<DemoKeys> {
   const admin = { authorization: `Bearer ${options.adminKey}` };
   const engineer = (await inject(app, { method: 'POST', url: '/api/v1/keys', headers: admin, payload: { role: 'engineer', label: 'demo engineer' } })) as { key: string };
   const logger = (await inject(app, { method: 'POST', url: '/api/v1/keys', headers: admin, payload: { role: 'logger', label: 'demo logger' } })) as { key: string };
@@ -81,6 +89,7 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
   for (const demo of demoMachines) {
     const text = readFileSync(machinesDir + demo.file, 'utf8');
     const model = loadMachineModel(text);
+    if (options.machines && !options.machines.includes(model.id)) continue;
     await inject(app, {
       method: 'PUT',
       url: `/api/v1/machines/${model.id}/model?validFrom=${encodeURIComponent(start.toISOString())}`,
@@ -91,10 +100,11 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
   }
 
   // one queue of recordings per point, oldest first; points run side by side so that every analysis thread works
-  const slots = DEMO_WEEKS * DEMO_RECORDINGS_PER_WEEK;
+  const allSlots = Array.from({ length: DEMO_WEEKS * DEMO_RECORDINGS_PER_WEEK }, (_, i) => i);
+  const slots = options.slots ?? allSlots;
   const queues = models.flatMap(({ demo, model }, m) =>
     demo.points.map((pointId, p) => async () => {
-      for (let slot = 0; slot < slots; slot++) {
+      for (const slot of slots) {
         const week = slot / DEMO_RECORDINGS_PER_WEEK;
         // the last slot lands an hour before now, the others spread evenly before it
         const recordedAt = new Date(start.getTime() + (slot + 1) * (WEEK_MS / DEMO_RECORDINGS_PER_WEEK) - 3_600_000);
@@ -132,6 +142,6 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
       while (next < queues.length) await queues[next++]!();
     }),
   );
-  const recordings = queues.length * slots;
+  const recordings = queues.length * slots.length;
   return { engineer: engineer.key, logger: logger.key, recordings };
 }
