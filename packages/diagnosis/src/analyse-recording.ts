@@ -217,7 +217,11 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
         return hypothesis;
       })
       .sort((a, b) => b.score - a.score || a.fault.localeCompare(b.fault) || a.component.localeCompare(b.component));
-    for (const s of scored) for (const m of s.matches) if (m.matched && s.candidate.domain === 'spectrum') matchedHz.push(m.measuredHz! * unitHz);
+    // Peaks a hypothesis explains: every spectrum-domain match, and the lines of a shown envelope hypothesis
+    // (bearing impacts put their defect harmonics into the ordinary spectrum as well).
+    for (const s of scored) {
+      for (const m of s.matches) if (m.matched && (s.candidate.domain === 'spectrum' || s.score >= 0.5)) matchedHz.push(m.measuredHz! * unitHz);
+    }
   } else if (model && !point) {
     warnings.push('the model has no vibration point for this channel; no fault hypotheses scored');
   }

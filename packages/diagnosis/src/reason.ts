@@ -21,10 +21,11 @@ function hz(x: number): string {
 }
 
 /** One plain-language sentence saying why a hypothesis scored as it did. */
-export function reasonFor(h: Hypothesis, matches: ReadonlyArray<LineMatch & { ambiguous?: boolean }>, unitHz = 1): string {
+export function reasonFor(h: Hypothesis, matches: ReadonlyArray<LineMatch & { ambiguous?: boolean; running?: boolean }>, unitHz = 1): string {
   const what = `${faultNames[h.fault] ?? h.fault} in ${h.component}`;
   const where = h.domain === 'envelope' ? 'envelope spectrum' : h.domain === 'order' ? 'order spectrum' : 'spectrum';
-  const found = matches.filter((m) => m.matched).sort((a, b) => b.snrDb - a.snrDb);
+  // Lines a healthy machine shows anyway (the mesh tone under a tooth fault) come last: they explain nothing.
+  const found = matches.filter((m) => m.matched).sort((a, b) => Number(a.running ?? false) - Number(b.running ?? false) || b.snrDb - a.snrDb);
   const total = matches.length;
   if (total === 0) return `No line of ${what} falls inside the recorded band, so the recording cannot show it.`;
   if (found.length === 0) return `None of the ${total} lines predicted for ${what} stands above the noise in the ${where}.`;
