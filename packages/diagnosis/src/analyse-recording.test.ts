@@ -103,6 +103,24 @@ describe('analyseRecording', () => {
     expect(a.hypotheses.some((h) => h.domain === 'order')).toBe(true);
   });
 
+  it('warns when the speed varied during the record by more than the matching tolerance allows', () => {
+    // The same running lines with the speed ramping 3 % over the record: each line's phase is the integral of its frequency.
+    const x = gaussianNoise(n, 8, 0.01);
+    const lines = componentLines(model, speedHz).filter((l) => (l.family === 'shaft-harmonic' && l.harmonic <= 2) || l.family === 'gear-mesh');
+    lines.forEach((l, j) => {
+      const a = l.family === 'gear-mesh' ? 0.1 / l.harmonic : 0.004;
+      for (let i = 0; i < n; i++) {
+        const t = i / fs;
+        const duration = n / fs;
+        // f(t) = f0·(1 + 0.03·t/T): phase = 2π f0 (t + 0.015 t²/T)
+        x[i] += a * Math.sin(2 * Math.PI * l.frequencyHz * (t + (0.015 * t * t) / duration) + j);
+      }
+    });
+    const a = analyseRecording(recording(x), { model, pointId: 'gb-input-h' });
+    expect(a.warnings.some((w) => /speed varied during the record/.test(w))).toBe(true);
+    expect(healthy.warnings.some((w) => /speed varied/.test(w))).toBe(false);
+  });
+
   it('without a model gives no hypotheses and no speed, but still the overall level and spectrum', () => {
     const a = analyseRecording(recording(runningMachine(speedHz, 5)));
     expect(a.hypotheses).toEqual([]);

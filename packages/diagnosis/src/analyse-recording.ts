@@ -11,8 +11,8 @@ import {
   convertUnit,
   downsampleForPlot,
   envelopeSpectrum,
-  findPeaks,
   integrateSpectrum,
+  interpolatePeak,
   isMotionUnit,
   noiseFloor,
   quantityOfUnit,
@@ -30,7 +30,7 @@ import { envelopeBand, type EnvelopeBand } from './envelope-band.js';
 import { DiagnosisInputError } from './errors.js';
 import { evidenceOf, scoreCandidates, type Candidate } from './hypothesis-score.js';
 import { gradeSeverity, isoBandHz } from './iso-zones.js';
-import { lineToleranceHz, matchableSpectrum, matchLine, type LineMatch, type MatchableSpectrum } from './line-matching.js';
+import { lineToleranceHz, matchableSpectrum, matchLine, strongPeaks, type LineMatch, type MatchableSpectrum } from './line-matching.js';
 import { angleSpectra, type AngleSpectra } from './order-tracking.js';
 import { reasonFor } from './reason.js';
 import type { Hypothesis, RecordingAnalysis, SpeedSource } from './recording-analysis.js';
@@ -405,6 +405,13 @@ function runningSpeed(
     preferredHz: (options.speedRpm ?? range.nominalRpm) / 60,
   });
   if (found && found.support.length >= 2) {
+    const smeared = smearedOrder(measured, found.support);
+    if (smeared !== null) {
+      warnings.push(
+        `the speed varied during the record: the ${smeared.label} line (order ${smeared.order.toFixed(1)}) is smeared over more than its matching tolerance; ` +
+          'high-order patterns score low, record a tach or encoder channel so that the recording can be order-tracked',
+      );
+    }
     if (options.speedRpm !== undefined && Math.abs(found.speedHz * 60 - options.speedRpm) > 0.002 * options.speedRpm) {
       warnings.push(`speed refined from the given ${options.speedRpm} rpm to ${(found.speedHz * 60).toFixed(1)} rpm by ${found.support.length} running lines`);
     }
@@ -413,6 +420,31 @@ function runningSpeed(
   const fallbackRpm = options.speedRpm ?? range.nominalRpm;
   warnings.push(`the spectrum does not show the running speed; using the ${options.speedRpm !== undefined ? 'given' : "model's nominal"} ${fallbackRpm} rpm`);
   return { speedHz: fallbackRpm / 60, uncertaintyHz: (0.01 * fallbackRpm) / 60, source: 'given' };
+}
+
+/**
+ * The highest-order running line (20 dB over the floor or more) whose power is spread beyond the window's main lobe:
+ * the power in ±3 bins over 1.5 × the interpolated tone power (a steady tone gives about 1 with the Hann window, whose
+ * noise bandwidth is 1.5 bins, Harris 1978); above 2, most of the line lies outside its main lobe, so the speed moved
+ * by more than the matching tolerance during the record. Null when every line is sharp.
+ */
+function smearedOrder(measured: MatchableSpectrum, support: ReadonlyArray<{ label: string; order: number; frequencyHz: number; snrDb: number }>): { label: string; order: number } | null {
+  const { spectrum } = measured;
+  if (spectrum.window !== 'hann') return null;
+  const df = spectrum.frequencyResolutionHz;
+  const strong = support.filter((s) => s.snrDb >= 20).sort((a, b) => b.order - a.order);
+  for (const s of strong.slice(0, 3)) {
+    const k = Math.round(s.frequencyHz / df);
+    if (k < 4 || k > spectrum.values.length - 5) continue;
+    let peakBin = k;
+    for (let j = k - 1; j <= k + 1; j++) if (spectrum.values[j]! > spectrum.values[peakBin]!) peakBin = j;
+    const tone = interpolatePeak(spectrum, peakBin);
+    let power = 0;
+    for (let j = peakBin - 3; j <= peakBin + 3; j++) power += binPower(spectrum, j);
+    const tonePower = (tone.rmsAmplitude * tone.rmsAmplitude);
+    if (tonePower > 0 && power / (1.5 * tonePower) > 2) return { label: s.label, order: s.order };
+  }
+  return null;
 }
 
 function envelopeAnalysis(
@@ -677,7 +709,7 @@ function unexplained(
   speedHz: number | null,
   speedUncertaintyHz: number,
 ): RecordingAnalysis['unexplainedPeaks'] {
-  const peaks = findPeaks(spectrum, { count: 40, minProminenceDb: UNEXPLAINED_MIN_SNR_DB });
+  const peaks = strongPeaks(measured, UNEXPLAINED_MIN_SNR_DB, 40);
   const df = spectrum.frequencyResolutionHz;
   const known = new LineCatalogue(catalogue);
   const out: RecordingAnalysis['unexplainedPeaks'] = [];

@@ -36,6 +36,8 @@ export interface MatchableSpectrum {
   floor: Float64Array;
   /** 10·log10(bin power / floor power) per bin. */
   snrDb: Float64Array;
+  /** Bins that are local maxima (v[k] > v[k−1] and v[k] >= v[k+1]), ascending. */
+  maxima: Int32Array;
   /** Per-bin results shared by every hypothesis matched on this spectrum (interpolation, leakage test). */
   readonly memo: { peaks: Map<number, PeakInterpolation>; leakage: Map<number, boolean> };
 }
@@ -53,7 +55,9 @@ export function matchableSpectrum(spectrum: Spectrum, floor: Float64Array): Matc
     const q = floor[k]!;
     snrDb[k] = q > 0 && p > 0 ? dbPerDecade * Math.log10(p / q) : p > 0 ? 60 : 0;
   }
-  return { spectrum, floor, snrDb, memo: { peaks: new Map(), leakage: new Map() } };
+  const maxima: number[] = [];
+  for (let k = 1; k < n - 1; k++) if (v[k]! > v[k - 1]! && v[k]! >= v[k + 1]!) maxima.push(k);
+  return { spectrum, floor, snrDb, maxima: Int32Array.from(maxima), memo: { peaks: new Map(), leakage: new Map() } };
 }
 
 export interface ToleranceOptions {
@@ -85,8 +89,10 @@ export function matchLine(measured: MatchableSpectrum, line: ExpectedLine, toler
   const hi = Math.min(last, Math.floor((line.frequencyHz + toleranceHz) / df));
   const nearest = Math.min(Math.max(1, Math.round(line.frequencyHz / df)), v.length - 1);
   let best = -1;
-  for (let k = lo; k <= hi; k++) {
-    if (v[k]! > v[k - 1]! && v[k]! >= v[k + 1]! && (best < 0 || v[k]! > v[best]!) && !leakageAt(measured, k)) best = k;
+  const maxima = measured.maxima;
+  for (let i = firstAtOrAbove(maxima, lo); i < maxima.length && maxima[i]! <= hi; i++) {
+    const k = maxima[i]!;
+    if (k <= last && (best < 0 || v[k]! > v[best]!) && !leakageAt(measured, k)) best = k;
   }
   const base = { label: line.label, predictedHz: line.frequencyHz, predictedAmplitude: line.amplitude, toleranceHz };
   const peak = best >= 0 && snrDb[best]! >= minSnrDb ? peakAt(measured, best) : null;
@@ -110,6 +116,33 @@ export function matchLine(measured: MatchableSpectrum, line: ExpectedLine, toler
     matched: false,
     upperBoundAmplitude: nearest < v.length ? Math.max(floor[nearest]!, v[nearest]!) : 0,
   };
+}
+
+function firstAtOrAbove(sorted: Int32Array, value: number): number {
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid]! < value) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/**
+ * The local maxima standing `minSnrDb` over the floor that are not window leakage, strongest first, at most
+ * `count`, with their interpolated frequency and amplitude (the noise floor is the spectrum's own, computed once).
+ */
+export function strongPeaks(measured: MatchableSpectrum, minSnrDb: number, count: number): Array<{ bin: number; frequencyHz: number; amplitude: number }> {
+  const above: number[] = [];
+  for (const k of measured.maxima) if (measured.snrDb[k]! >= minSnrDb) above.push(k);
+  above.sort((a, b) => measured.spectrum.values[b]! - measured.spectrum.values[a]!);
+  const out: Array<{ bin: number; frequencyHz: number; amplitude: number }> = [];
+  for (const k of above) {
+    if (out.length >= count) break;
+    if (!leakageAt(measured, k)) out.push({ bin: k, ...peakAt(measured, k) });
+  }
+  return out;
 }
 
 function peakAt(measured: MatchableSpectrum, k: number): PeakInterpolation {
