@@ -25,11 +25,11 @@ function printConfusion(s: EvalSummary): void {
 }
 
 function printMisses(results: readonly CaseResult[]): void {
-  const wrong = results.filter((r) => (r.case.fault === 'healthy' ? r.maxScore >= 0.5 : r.predictedFault !== r.case.fault || (r.trueScore < 0.5 && r.case.severity >= 0.7)));
+  const wrong = results.filter((r) => (r.case.fault === 'healthy' ? r.maxScore >= 0.5 : r.predictedFault !== r.case.fault || r.predictedComponent !== r.case.component || r.trueScore < 0.5));
   if (wrong.length === 0) return;
   console.log(`\nRecordings not diagnosed as built (${wrong.length}):`);
   for (const r of wrong) {
-    console.log(`  ${r.case.id}: top ${r.predictedFault}${r.predictedComponent ? `@${r.predictedComponent}` : ''} (${r.topScore.toFixed(2)}), true ${r.trueScore.toFixed(2)}, speed error ${r.speedErrorPercent.toFixed(2)} %`);
+    console.log(`  ${r.case.id}: top ${r.predictedFault}${r.predictedComponent ? `@${r.predictedComponent}` : ''} (${r.topScore.toFixed(2)}), true ${r.exactScore.toFixed(2)}, speed error ${r.speedErrorPercent.toFixed(2)} %`);
   }
 }
 

@@ -145,3 +145,29 @@ describe('analyseRecording', () => {
     expect(() => analyseRecording({ sampleRateHz: fs, channels: [{ name: 'x', unit: 'V', samples: new Float64Array(2048) }], metadata: {} })).toThrow(/unit 'V'/);
   });
 });
+
+describe('analyseRecording with a baseline', () => {
+  const speedHz = (1480 * 0.985) / 60;
+  const inputHz = speedHz * 0.72 * 0.99;
+  // An input shaft whose 1× grew to 12 mm/s r.m.s.-ish (far over the ISO A/B boundary of group 2 rigid, 1.4 mm/s).
+  const unbalanced = () => {
+    const x = runningMachine(speedHz, 12);
+    const a = (12e-3 * Math.SQRT2 * 2 * Math.PI * inputHz) / 9.80665; // peak g of 12 mm/s r.m.s. at 1× input
+    const tone = sine(n, fs, inputHz, a, 0.3);
+    for (let i = 0; i < n; i++) x[i] += tone[i]!;
+    return x;
+  };
+
+  it('scores unbalance from the absolute level when there is no baseline', () => {
+    const a = analyseRecording(recording(unbalanced()), { model, pointId: 'gb-input-h' });
+    expect(a.hypotheses.find((h) => h.fault === 'unbalance' && h.component === 'input')!.score).toBeGreaterThanOrEqual(0.5);
+  });
+
+  it('scores it by the rise over an earlier analysis of the same state when one is given: no rise, no fault', () => {
+    const before = analyseRecording(recording(unbalanced()), { model, pointId: 'gb-input-h' });
+    const after = analyseRecording(recording(unbalanced()), { model, pointId: 'gb-input-h', baseline: before });
+    const h = after.hypotheses.find((x) => x.fault === 'unbalance' && x.component === 'input')!;
+    expect(h.parts.level).toBe(0);
+    expect(h.score).toBe(0);
+  });
+});

@@ -198,7 +198,11 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
       },
       runningLines: new LineCatalogue(runningLines(model, lineSpeed)),
       minSnrDb: MIN_SNR_DB,
-      level: (c, matches) => levelOf(c, matches, unit, isoAb, options.baseline ?? null, { model, speedHz: lineSpeed, measured: main, uncertaintyHz: angle ? 0 : uncertaintyHz, unitHz }),
+      level: (c, matches) =>
+        levelOf(c, matches, unit, isoAb, options.baseline ?? null, {
+          model, speedHz: lineSpeed, measured: main, uncertaintyHz: angle ? 0 : uncertaintyHz, unitHz,
+          referenceSpeedHz: speedHz, baselineOrders: point.baseline?.orders ?? null, pointUnit: point.unit ?? null,
+        }),
       support: (c) => supportOf(c, model, lineSpeed, cepstrum),
     });
     hypotheses = scored
@@ -536,8 +540,31 @@ function levelOf(
   unit: string,
   isoAbMmPerS: number,
   baseline: RecordingAnalysis | null,
-  context: { model: MachineModel; speedHz: number; measured: MatchableSpectrum; uncertaintyHz: number; unitHz: number },
+  context: {
+    model: MachineModel; speedHz: number; measured: MatchableSpectrum; uncertaintyHz: number; unitHz: number;
+    referenceSpeedHz: number; baselineOrders: ReadonlyArray<{ order: number; amplitude: number }> | null; pointUnit: string | null;
+  },
 ): number {
+  // The model's own healthy amplitudes at chosen orders of the reference shaft (point.baseline.orders, peak amplitudes
+  // in the point's unit): the rise of the matched lines found there, +12 dB counting fully, as against a baseline analysis.
+  // Only for faults judged by the size of lines every machine shows (a defect line's presence needs no baseline),
+  // and only when the baseline orders hold most of the candidate's matched power.
+  if (!baseline && context.baselineOrders && context.baselineOrders.length > 0 && candidate.domain === 'spectrum' && candidate.ownsRunningLines) {
+    const scale = context.pointUnit && context.pointUnit !== unit ? safeScale(context.pointUnit, unit) : 1;
+    let now = 0;
+    let then = 0;
+    const all = energy(matches.filter((m) => m.matched).map((m) => m.measuredAmplitude!));
+    for (const m of matches) {
+      if (!m.matched) continue;
+      const order = (m.measuredHz! * context.unitHz) / context.referenceSpeedHz;
+      const tolOrders = (m.toleranceHz * context.unitHz) / context.referenceSpeedHz;
+      const b = context.baselineOrders.find((x) => Math.abs(x.order - order) <= tolOrders);
+      if (!b) continue;
+      now += m.measuredAmplitude! ** 2;
+      then += (b.amplitude * scale) ** 2;
+    }
+    if (then > 0 && now >= 0.5 * all) return Math.max(0, Math.min(1, (10 * Math.log10(now / then)) / 12));
+  }
   if (baseline) {
     const before = baseline.hypotheses.find((h) => h.fault === candidate.fault && h.component === candidate.component);
     if (before) {
@@ -667,6 +694,14 @@ function toothDropDepth(gearId: string, context: { model: MachineModel; speedHz:
 }
 
 const depthMemo = new WeakMap<MatchableSpectrum, Map<string, number | null>>();
+
+function safeScale(from: string, to: string): number {
+  try {
+    return convertUnit(1, from, to);
+  } catch {
+    return 1;
+  }
+}
 
 function energy(amplitudes: readonly number[]): number {
   let s = 0;
