@@ -17,7 +17,6 @@ export const diagnosisErrorCodes = [
   'invalid_argument', // a number out of range, a length too short
   'unknown_point', // pointId names no point of the model
   'unknown_channel', // channel or tachChannel outside the recording
-  'no_tach_pulses', // the tach channel has too few pulses to give a speed
   'empty_recording', // no samples to analyse
 ] as const;
 
