@@ -97,24 +97,28 @@ export async function runAnalysis(pool: AnalysisPool, recording: Recording, opti
   }
 }
 
-/** Drops non-finite numbers that JSON cannot carry (NaN kurtosis of a constant record, say). */
-export function jsonSafe<T>(value: T): T {
-  return JSON.parse(JSON.stringify(value, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))) as T;
-}
-
 /** Significant digits kept of the plot spectra and evidence in a stored analysis. */
 export const STORED_SIGNIFICANT_DIGITS = 6;
 
 /**
- * The analysis as stored: plot spectra and evidence rounded to six significant digits (far finer than a
- * plot or a reading needs, and a third of the bytes); `overall` and `indicators` keep full precision, the
- * same values the trends hold.
+ * The analysis as stored, as JSON text made in one pass: non-finite numbers (the NaN kurtosis of a constant
+ * record) become null, and plot spectra and evidence are rounded to six significant digits (far finer than a
+ * plot or a reading needs, and a third fewer bytes); `overall` and `indicators` keep full precision, the same
+ * values the trends hold.
  */
-export function storedAnalysis(a: RecordingAnalysis): RecordingAnalysis {
-  const round = (_k: string, v: unknown) =>
-    typeof v === 'number' && !Number.isInteger(v) ? Number(v.toPrecision(STORED_SIGNIFICANT_DIGITS)) : v;
-  const { overall, indicators, ...rest } = a;
-  return { ...(JSON.parse(JSON.stringify(rest, round)) as typeof rest), overall, indicators };
+export function storedAnalysisJson(a: RecordingAnalysis): string {
+  return JSON.stringify(a, function (this: unknown, _key: string, v: unknown) {
+    if (typeof v !== 'number') return v;
+    if (!Number.isFinite(v)) return null;
+    // `this` is the object holding the value: overall and indicators are the top level's own children
+    if (this === a.overall || this === a.indicators || Number.isInteger(v)) return v;
+    return Number(v.toPrecision(STORED_SIGNIFICANT_DIGITS));
+  });
+}
+
+/** A number for a column, null when the analysis gave none or a non-finite one. */
+export function finite(x: number | null | undefined): number | null {
+  return typeof x === 'number' && Number.isFinite(x) ? x : null;
 }
 
 function isUniqueViolation(err: unknown): boolean {
@@ -183,14 +187,13 @@ export async function ingestRecording(
   const recordedAt = recordedAtOf(input, recording);
   const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);
   const model = modelVersion === null ? null : await models.get(sql, input.machine.id, modelVersion);
-  const analysis = jsonSafe(
-    await runAnalysis(pool, recording, {
-      model,
-      pointId: input.point.pointKey,
-      pointUnit: input.point.unit,
-      ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
-    }),
-  );
+  const analysis = await runAnalysis(pool, recording, {
+    model,
+    pointId: input.point.pointKey,
+    pointUnit: input.point.unit,
+    ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
+  });
+  const resultJson = storedAnalysisJson(analysis);
   const top = analysis.hypotheses[0];
 
   try {
@@ -215,12 +218,12 @@ export async function ingestRecording(
         recordingId,
         modelVersion,
         softwareVersion: analysis.softwareVersion ?? softwareVersion(),
-        speedHz: analysis.speedHz,
+        speedHz: finite(analysis.speedHz),
         speedSource: analysis.speedSource,
-        velocityRmsMmPerS: analysis.overall.velocityRmsMmPerS,
+        velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
         zone: analysis.overall.zone,
         topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        result: storedAnalysis(analysis),
+        resultJson,
       });
       await writeTrendValues(tx, {
         pointId: input.point.id,

@@ -2,7 +2,7 @@ import type { Recording } from '@kinespec/signal';
 import { softwareVersion, type RecordingAnalysis } from './analysis.js';
 import { evaluateAlarms } from './alarms.js';
 import type { Sql } from './database.js';
-import { jsonSafe, runAnalysis, storedAnalysis } from './ingest.js';
+import { finite, runAnalysis, storedAnalysisJson } from './ingest.js';
 import type { AnalysisPool } from './analysis-pool.js';
 import type { ModelCache } from './model-cache.js';
 import { problem } from './problems.js';
@@ -51,9 +51,7 @@ export async function reanalyseMachine(
     };
     let analysis: RecordingAnalysis;
     try {
-      analysis = jsonSafe(
-        await runAnalysis(pool, recording, { model, pointId: point.pointKey, pointUnit: point.unit, ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}) }),
-      );
+      analysis = await runAnalysis(pool, recording, { model, pointId: point.pointKey, pointUnit: point.unit, ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}) });
     } catch (err) {
       failed.push({ recordingId: id, reason: err instanceof Error ? err.message : String(err) });
       continue;
@@ -66,12 +64,12 @@ export async function reanalyseMachine(
         recordingId: id,
         modelVersion: version,
         softwareVersion: analysis.softwareVersion ?? softwareVersion(),
-        speedHz: analysis.speedHz,
+        speedHz: finite(analysis.speedHz),
         speedSource: analysis.speedSource,
-        velocityRmsMmPerS: analysis.overall.velocityRmsMmPerS,
+        velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
         zone: analysis.overall.zone,
         topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        result: storedAnalysis(analysis),
+        resultJson: storedAnalysisJson(analysis),
       });
       await writeTrendValues(tx, { pointId, recordingId: id, analysisId: stored.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
       await evaluateAlarms(tx, { siteId: machine.siteId, point: p, recordingId: id, recordedAt: row.recordedAt, indicators: analysis.indicators });

@@ -375,7 +375,8 @@ export interface NewAnalysis {
   velocityRmsMmPerS: number | null;
   zone: string | null;
   topHypothesis: { fault: string; component: string; score: number; reason: string } | null;
-  result: unknown;
+  /** The RecordingAnalysis as JSON text (made once by the caller, cast to jsonb here). */
+  resultJson: string;
 }
 
 /** Stores an analysis as the recording's current one; earlier analyses stay, no longer current. */
@@ -385,7 +386,7 @@ export async function insertAnalysis(tx: Queryable, a: NewAnalysis): Promise<{ i
     insert into analyses (recording_id, model_version, software_version, is_current, speed_hz, speed_source,
       velocity_rms_mm_per_s, zone, top_hypothesis, result)
     values (${a.recordingId}, ${a.modelVersion}, ${a.softwareVersion}, true, ${a.speedHz}, ${a.speedSource},
-      ${a.velocityRmsMmPerS}, ${a.zone}, ${a.topHypothesis === null ? null : json(tx, a.topHypothesis)}, ${json(tx, a.result)})
+      ${a.velocityRmsMmPerS}, ${a.zone}, ${a.topHypothesis === null ? null : json(tx, a.topHypothesis)}, ${a.resultJson}::text::jsonb)
     returning id, created_at as "createdAt"`;
   return row!;
 }
@@ -529,23 +530,20 @@ export async function fleetRanking(
   const afterFrom = new Date(today.getTime() - 6 * dayMs);
   const beforeTo = new Date(today.getTime() - 7 * q.weeks * dayMs);
   const beforeFrom = new Date(beforeTo.getTime() - 6 * dayMs);
+  const window = (from: Date, to: Date) => sql`
+    select d.point_id, d.indicator, sum(d.sum) / nullif(sum(d.count), 0) as mean
+    from trend_daily d join points p on p.id = d.point_id join machines m on m.id = p.machine_id
+    where m.site_id = ${q.siteId} and d.indicator = any(${sql.array(q.indicators)}::text[])
+      and d.day >= ${dayText(from)}::date and d.day <= ${dayText(to)}::date
+    group by d.point_id, d.indicator`;
+  // each window is its own range scan of trend_daily_window (indicator, day, point_id)
   return sql<RankingRow[]>`
-    with windows as (
-      select d.point_id, d.indicator,
-        sum(d.sum) filter (where d.day >= ${dayText(beforeFrom)}::date and d.day <= ${dayText(beforeTo)}::date)
-          / nullif(sum(d.count) filter (where d.day >= ${dayText(beforeFrom)}::date and d.day <= ${dayText(beforeTo)}::date), 0) as before,
-        sum(d.sum) filter (where d.day >= ${dayText(afterFrom)}::date and d.day <= ${dayText(today)}::date)
-          / nullif(sum(d.count) filter (where d.day >= ${dayText(afterFrom)}::date and d.day <= ${dayText(today)}::date), 0) as after
-      from trend_daily d
-      where d.indicator = any(${sql.array(q.indicators)}::text[])
-        and ((d.day >= ${dayText(beforeFrom)}::date and d.day <= ${dayText(beforeTo)}::date)
-          or (d.day >= ${dayText(afterFrom)}::date and d.day <= ${dayText(today)}::date))
-        and d.point_id in (select p.id from points p join machines m on m.id = p.machine_id where m.site_id = ${q.siteId})
-      group by d.point_id, d.indicator
-    ), rises as (
-      select w.*, w.after - w.before as rise,
-        case when w.before > 0 then 100 * (w.after - w.before) / w.before end as rise_percent
-      from windows w where w.before is not null and w.after is not null
+    with before as (${window(beforeFrom, beforeTo)}), after as (${window(afterFrom, today)}),
+    rises as (
+      select b.point_id, b.indicator, b.mean as before, a.mean as after, a.mean - b.mean as rise,
+        case when b.mean > 0 then 100 * (a.mean - b.mean) / b.mean end as rise_percent
+      from before b join after a on a.point_id = b.point_id and a.indicator = b.indicator
+      where b.mean is not null and a.mean is not null
     ), best as (
       select distinct on (p.machine_id) p.machine_id, p.point_key, r.indicator, r.before, r.after, r.rise, r.rise_percent
       from rises r join points p on p.id = r.point_id
