@@ -110,6 +110,9 @@ describe('the HTTP service', () => {
     expect(codes).toEqual([...Array(20).fill(200), 429, 429]);
     expect(Number(last!.headers['retry-after'])).toBeGreaterThan(0);
     expect(last!.json().type).toBe('urn:kinespec:problem:rate-limited');
+    // the process's own requests (demo seeding) carry its internal token and pass; a guessed token does not
+    expect((await svc.app.inject({ url: '/api/v1/site', headers: { ...auth(key), 'x-kinespec-internal': svc.app.internalToken } })).statusCode).toBe(200);
+    expect((await svc.app.inject({ url: '/api/v1/site', headers: { ...auth(key), 'x-kinespec-internal': 'guess' } })).statusCode).toBe(429);
     // another key keeps its own budget
     expect((await svc.app.inject({ url: '/api/v1/site', headers: auth(site.keys.admin) })).statusCode).toBe(200);
   });

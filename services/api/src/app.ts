@@ -1,5 +1,5 @@
 import { existsSync } from 'node:fs';
-import { createHash } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import fastifyRateLimit from '@fastify/rate-limit';
 import fastifyStatic from '@fastify/static';
 import fastifySwagger from '@fastify/swagger';
@@ -26,6 +26,10 @@ import type { ApiKeyRow } from './store.js';
 import { serviceVersion } from './version.js';
 
 declare module 'fastify' {
+  interface FastifyInstance {
+    /** Sent as X-Kinespec-Internal by the process's own in-process requests (demo seeding): not rate-limited. */
+    internalToken: string;
+  }
   interface FastifyRequest {
     apiKey: ApiKeyRow | null;
   }
@@ -69,6 +73,8 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
   app.setValidatorCompiler(validatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
   app.decorateRequest('apiKey', null);
+  const internalToken = randomBytes(24).toString('base64url');
+  app.decorate('internalToken', internalToken);
   registerProblemHandlers(app);
 
   const services: Services = {
@@ -117,7 +123,8 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
         const token = bearerToken(request);
         return token ? `key:${createHash('sha256').update(token).digest('base64url').slice(0, 22)}` : `ip:${request.ip}`;
       },
-      allowList: (request) => request.url === '/health' || request.url === '/ready',
+      allowList: (request) =>
+        request.url === '/health' || request.url === '/ready' || request.headers['x-kinespec-internal'] === internalToken,
       errorResponseBuilder: (_request, context) =>
         problem('rate-limited', `rate limit of ${context.max} requests per window reached; retry in ${context.after}`),
     });

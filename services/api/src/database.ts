@@ -1,5 +1,6 @@
-import { mkdirSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
 import postgres from 'postgres';
 
 /** The one driver: postgres.js, whether the server is PostgreSQL or the embedded PGlite behind its socket. */
@@ -41,8 +42,8 @@ function redact(url: string): string {
 }
 
 /**
- * Opens the store. With a server URL: a postgres.js pool. Without: PGlite in `dataDir`, served on
- * 127.0.0.1 (random port) through pglite-socket so that the same driver and queries run on both.
+ * Opens the store. With a server URL: a postgres.js pool. Without: PGlite in `dataDir`, served through
+ * pglite-socket on a private Unix socket so that the same driver and queries run on both.
  * PGlite is single-user and concurrent socket connections can interleave queries, so the embedded
  * pool holds one connection; postgres.js queues the rest.
  */
@@ -59,21 +60,28 @@ export async function openDatabase(options: OpenDatabaseOptions): Promise<Databa
   const location = inMemory ? options.dataDir : resolve(options.dataDir);
   if (!inMemory) mkdirSync(location, { recursive: true });
   const pglite = await PGlite.create(location);
-  const server = new PGLiteSocketServer({ db: pglite, host: '127.0.0.1', port: 0 });
+  // a Unix socket in a fresh 0700 directory: only this user can reach the database (no password on it);
+  // Windows has no such sockets, so there it is loopback TCP on a random port
+  const socketDir = process.platform === 'win32' ? null : mkdtempSync(join(tmpdir(), 'kinespec-db-'));
+  const socketPath = socketDir ? join(socketDir, '.s.PGSQL.5432') : null;
+  const server = new PGLiteSocketServer(socketPath ? { db: pglite, path: socketPath } : { db: pglite, host: '127.0.0.1', port: 0 });
   await server.start();
-  const sql = postgres(`postgres://postgres@${server.getServerConn()}/postgres`, {
-    ...commonOptions,
-    max: 1,
-    ssl: false,
-  }) as unknown as Sql;
+  const connection = { user: 'postgres', database: 'postgres', ssl: false as const, max: 1 };
+  const sql = (socketPath
+    ? postgres({ ...commonOptions, ...connection, path: socketPath })
+    : postgres(`postgres://postgres@${server.getServerConn()}/postgres`, { ...commonOptions, ...connection })) as unknown as Sql;
   return {
     sql,
     mode: 'embedded',
     location,
     async close() {
-      await sql.end({ timeout: 5 });
-      await server.stop();
-      await pglite.close();
+      try {
+        await sql.end({ timeout: 5 });
+        await server.stop();
+        await pglite.close();
+      } finally {
+        if (socketDir) rmSync(socketDir, { recursive: true, force: true });
+      }
     },
   };
 }
