@@ -1,7 +1,7 @@
-import { readFileSync } from 'node:fs';
 import { extname } from 'node:path';
 import { formatProblem, parseMachineModel, type MachineModel, type MachineModelFormat, type ValidationResult } from '@kinespec/kinematics';
 import { CliError } from './cli-error.js';
+import { readInputFile } from './input-file.js';
 import type { CliIo } from './io.js';
 
 /** JSON for .json, YAML for .yaml/.yml, otherwise guessed from the text. */
@@ -12,16 +12,17 @@ export function machineFileFormat(path: string): MachineModelFormat | undefined 
   return undefined;
 }
 
+/** The one machine model file of a verb's positionals. */
+export function machineFileArgument(positionals: readonly string[], usage: string): string {
+  const [path, ...extra] = positionals;
+  if (path === undefined) throw new CliError(`missing the machine model file (usage: ${usage})`);
+  if (extra.length > 0) throw new CliError(`unexpected argument '${extra[0]}'`);
+  return path;
+}
+
 /** Reads and validates a machine model file; a file that cannot be read is a CliError. */
 export function readMachineFile(path: string): ValidationResult {
-  let text: string;
-  try {
-    text = readFileSync(path, 'utf8');
-  } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    throw new CliError(`cannot read machine model '${path}'${code === 'ENOENT' ? ': no such file' : code ? ` (${code})` : ''}`);
-  }
-  return parseMachineModel(text, machineFileFormat(path));
+  return parseMachineModel(readInputFile(path, 'machine model').toString('utf8'), machineFileFormat(path));
 }
 
 /** One line per problem: "gearMeshes[1].driven.teeth: must be a whole number >= 1 (out_of_range)". */

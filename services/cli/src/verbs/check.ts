@@ -1,8 +1,11 @@
-import { parseArgs } from 'node:util';
 import { speedRangeRpm, type MachineModel } from '@kinespec/kinematics';
 import { CliError } from '../cli-error.js';
-import { problemLines, readMachineFile } from '../machine-file.js';
+import { parseFlags } from '../flags.js';
+import { machineFileArgument, problemLines, readMachineFile } from '../machine-file.js';
 import type { Verb } from '../verb.js';
+
+/** The one-line usage that error messages end with. */
+const SHORT_USAGE = 'kinespec check <machine.json>';
 
 function plural(n: number, one: string, many = `${one}s`): string {
   return `${n} ${n === 1 ? one : many}`;
@@ -31,17 +34,10 @@ export const checkVerb: Verb = {
   summary: 'Validate a machine model file (JSON or YAML) and print every problem with its path',
   usage: 'kinespec check <machine.json|yaml> [--json]\n\n  Exit 0 when the model is valid, 2 when it is not (every problem is printed first).',
   async run(args, io) {
-    let parsed;
-    try {
-      parsed = parseArgs({ args, allowPositionals: true, options: { json: { type: 'boolean', default: false } } });
-    } catch (err) {
-      throw new CliError((err as Error).message);
-    }
-    const [path, ...extra] = parsed.positionals;
-    if (path === undefined) throw new CliError('missing the machine model file (usage: kinespec check <machine.json>)');
-    if (extra.length > 0) throw new CliError(`unexpected argument '${extra[0]}'`);
+    const { values, positionals } = parseFlags(args, { json: { type: 'boolean', default: false } }, SHORT_USAGE);
+    const path = machineFileArgument(positionals, SHORT_USAGE);
     const result = readMachineFile(path);
-    if (parsed.values.json) {
+    if (values.json) {
       io.out(JSON.stringify(result.ok ? { ok: true, summary: modelSummary(result.model) } : { ok: false, problems: result.problems }, null, 2));
       if (!result.ok) throw new CliError(`${path}: ${plural(result.problems.length, 'problem')}`);
       return 0;

@@ -63,6 +63,7 @@ describe('diagnose verb', () => {
       ['diagnose', join(dir, 'missing.csv'), '--machine', machinePath],
       ['diagnose', csvPath, '--machine', machinePath, '--speed-rpm', '-5'],
       ['diagnose', csvPath, '--machine', machinePath, '--channel', '7'],
+      ['diagnose', csvPath, '--machine', machinePath, '--sample-rate=0'],
     ]) {
       const io = capture();
       expect(await main(args, io)).toBe(2);

@@ -1,12 +1,12 @@
 import { basename } from 'node:path';
-import { parseArgs } from 'node:util';
 import { analyseRecording, DiagnosisInputError, type RecordingAnalysis } from '@kinespec/diagnosis';
-import { SignalInputError, type Recording } from '@kinespec/signal';
+import { SignalInputError } from '@kinespec/signal';
 import { CliError } from '../cli-error.js';
+import { parseFlags, positiveNumber, wholeNumber } from '../flags.js';
 import type { CliIo } from '../io.js';
 import { loadMachineFile } from '../machine-file.js';
+import { channelIndex, decoderHint, loadRecordingFile, recordingFileArgument, withFileNameOnInputErrors } from '../recording-file.js';
 import type { Verb } from '../verb.js';
-import { loadRecordingFile } from './spectrum.js';
 
 const USAGE =
   'kinespec diagnose <recording> --machine <machine.json> [--point id] [--channel N|name] [--tach-channel N|name] ' +
@@ -14,26 +14,6 @@ const USAGE =
 
 /** Hypotheses printed after the ones the recording shows. */
 const NEXT_COUNT = 3;
-
-/** A channel by exact name or by 1-based number (as `kinespec spectrum --channel`); returns the 0-based index. */
-function channelIndex(recording: Recording, flag: string, selector: string | undefined): number | undefined {
-  if (selector === undefined) return undefined;
-  const byName = recording.channels.findIndex((c) => c.name === selector);
-  if (byName >= 0) return byName;
-  const n = Number(selector);
-  if (Number.isInteger(n) && n >= 1 && n <= recording.channels.length) return n - 1;
-  const names = recording.channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ');
-  throw new CliError(`--${flag} '${selector}' matches no channel; the recording has ${names}`);
-}
-
-function positiveNumber(flag: string, text: string | undefined, whole = false): number | undefined {
-  if (text === undefined) return undefined;
-  const v = Number(text);
-  if (text.trim() === '' || !Number.isFinite(v) || v <= 0 || (whole && !Number.isInteger(v))) {
-    throw new CliError(`--${flag} must be ${whole ? 'a whole number >= 1' : 'a number > 0'} (got '${text}')`);
-  }
-  return v;
-}
 
 function fmt(x: number, digits = 2): string {
   return Number.isFinite(x) ? x.toFixed(digits) : String(x);
@@ -76,55 +56,45 @@ export const diagnoseVerb: Verb = {
   summary: 'Diagnose a recording against a machine model: running speed, overall level and ISO zone, a scored hypothesis with evidence for every fault candidate',
   usage: USAGE,
   async run(args: string[], io: CliIo): Promise<number> {
-    let parsed;
-    try {
-      parsed = parseArgs({
-        args,
-        allowPositionals: true,
-        strict: true,
-        options: {
-          machine: { type: 'string' },
-          point: { type: 'string' },
-          channel: { type: 'string' },
-          'tach-channel': { type: 'string' },
-          'pulses-per-rev': { type: 'string' },
-          'speed-rpm': { type: 'string' },
-          'sample-rate': { type: 'string' },
-          unit: { type: 'string' },
-          json: { type: 'boolean' },
-        },
-      });
-    } catch (err) {
-      throw new CliError(`${(err as Error).message.split('\n')[0]} (usage: ${USAGE})`);
-    }
-    const { values: v, positionals } = parsed;
-    if (positionals.length !== 1) {
-      throw new CliError(positionals.length === 0 ? `a recording file is required (usage: ${USAGE})` : `one recording file at a time (got ${positionals.length})`);
-    }
+    const { values: v, positionals } = parseFlags(
+      args,
+      {
+        machine: { type: 'string' },
+        point: { type: 'string' },
+        channel: { type: 'string' },
+        'tach-channel': { type: 'string' },
+        'pulses-per-rev': { type: 'string' },
+        'speed-rpm': { type: 'string' },
+        'sample-rate': { type: 'string' },
+        unit: { type: 'string' },
+        json: { type: 'boolean' },
+      },
+      USAGE,
+    );
+    const file = recordingFileArgument(positionals, USAGE);
     if (v.machine === undefined) throw new CliError(`--machine <machine.json> is required (usage: ${USAGE})`);
     const speedRpm = positiveNumber('speed-rpm', v['speed-rpm']);
-    const pulsesPerRev = positiveNumber('pulses-per-rev', v['pulses-per-rev'], true);
-    const sampleRateHz = positiveNumber('sample-rate', v['sample-rate']);
-    if (v.unit !== undefined && v.unit.trim() === '') throw new CliError('--unit must name a unit, e.g. g, m/s^2, mm/s');
-    const file = positionals[0]!;
+    const pulsesPerRev = wholeNumber('pulses-per-rev', v['pulses-per-rev'], 1);
+    const hint = decoderHint(v['sample-rate'], v.unit);
     const model = loadMachineFile(v.machine, io);
-    let analysis: RecordingAnalysis;
-    try {
-      const recording = loadRecordingFile(file, { ...(sampleRateHz !== undefined ? { sampleRateHz } : {}), ...(v.unit !== undefined ? { unit: v.unit } : {}) });
-      const channel = channelIndex(recording, 'channel', v.channel);
-      const tachChannel = channelIndex(recording, 'tach-channel', v['tach-channel']);
-      analysis = analyseRecording(recording, {
-        model,
-        ...(v.point !== undefined ? { pointId: v.point } : {}),
-        ...(speedRpm !== undefined ? { speedRpm } : {}),
-        ...(channel !== undefined ? { channel } : {}),
-        ...(tachChannel !== undefined ? { tachChannel } : {}),
-        ...(pulsesPerRev !== undefined ? { pulsesPerRev } : {}),
-      });
-    } catch (err) {
-      if (err instanceof SignalInputError || err instanceof DiagnosisInputError) throw new CliError(`${basename(file)}: ${err.message}`);
-      throw err;
-    }
+    const analysis = withFileNameOnInputErrors(
+      file,
+      () => {
+        const recording = loadRecordingFile(file, hint);
+        // the CLI takes names or 1-based numbers; analyseRecording takes 0-based indices
+        const channel = v.channel === undefined ? undefined : channelIndex(recording, v.channel, 'channel');
+        const tachChannel = v['tach-channel'] === undefined ? undefined : channelIndex(recording, v['tach-channel'], 'tach-channel');
+        return analyseRecording(recording, {
+          model,
+          ...(v.point !== undefined ? { pointId: v.point } : {}),
+          ...(speedRpm !== undefined ? { speedRpm } : {}),
+          ...(channel !== undefined ? { channel } : {}),
+          ...(tachChannel !== undefined ? { tachChannel } : {}),
+          ...(pulsesPerRev !== undefined ? { pulsesPerRev } : {}),
+        });
+      },
+      [SignalInputError, DiagnosisInputError],
+    );
     io.out(v.json ? JSON.stringify(analysis, null, 2) : formatDiagnosis(analysis, { file: basename(file), machine: model.id }));
     return 0;
   },

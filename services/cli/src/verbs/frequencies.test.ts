@@ -61,7 +61,7 @@ describe('frequencies verb', () => {
   });
 
   it('refuses bad flags with one line naming the flag', async () => {
-    for (const args of [['--speed-rpm', '-5'], ['--harmonics', '2.5'], ['--sample-rate-hz', '1000'], ['--bogus']]) {
+    for (const args of [['--speed-rpm', '-5'], ['--harmonics', '2.5'], ['--harmonics', ''], ['--sample-rate-hz', '1000'], ['--bogus']]) {
       const io = capture();
       expect(await main(['frequencies', fixture('aeration-mixer-2.json'), ...args], io)).toBe(2);
       expect(io.stderr).toHaveLength(1);

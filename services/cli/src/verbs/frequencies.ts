@@ -1,4 +1,3 @@
-import { parseArgs } from 'node:util';
 import {
   componentLines,
   flagLines,
@@ -9,30 +8,16 @@ import {
   type MachineModel,
 } from '@kinespec/kinematics';
 import { CliError } from '../cli-error.js';
-import { loadMachineFile } from '../machine-file.js';
+import { parseFlags, positiveNumber, wholeNumber } from '../flags.js';
+import { loadMachineFile, machineFileArgument } from '../machine-file.js';
+import { alignColumns } from '../text-table.js';
 import type { Verb } from '../verb.js';
 
-function positive(name: string, text: string | undefined): number | undefined {
-  if (text === undefined) return undefined;
-  const value = Number(text);
-  if (!Number.isFinite(value) || value <= 0) throw new CliError(`--${name} must be a number > 0 (got '${text}')`);
-  return value;
-}
-
-function wholeNumber(name: string, text: string | undefined): number | undefined {
-  if (text === undefined) return undefined;
-  const value = Number(text);
-  if (!Number.isInteger(value) || value < 0) throw new CliError(`--${name} must be a whole number >= 0 (got '${text}')`);
-  return value;
-}
+/** The one-line usage that error messages end with; `--help` prints the full one. */
+const SHORT_USAGE = 'kinespec frequencies <machine.json>';
 
 function fixed(x: number, digits: number): string {
   return x.toFixed(digits);
-}
-
-function table(rows: string[][], rightAligned: ReadonlySet<number>): string[] {
-  const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => r[c]!.length)));
-  return rows.map((r) => r.map((cell, c) => (rightAligned.has(c) ? cell.padStart(widths[c]!) : cell.padEnd(widths[c]!))).join('  ').trimEnd());
 }
 
 function componentTitle(model: MachineModel, line: ComponentLine): string {
@@ -72,32 +57,24 @@ export const frequenciesVerb: Verb = {
     '  --json               { shafts: [...], lines: [...] }',
   ].join('\n'),
   async run(args, io) {
-    let parsed;
-    try {
-      parsed = parseArgs({
-        args,
-        allowPositionals: true,
-        options: {
-          'speed-rpm': { type: 'string' },
-          json: { type: 'boolean', default: false },
-          harmonics: { type: 'string' },
-          sidebands: { type: 'string' },
-          'sample-rate-hz': { type: 'string' },
-          'resolution-hz': { type: 'string' },
-        },
-      });
-    } catch (err) {
-      throw new CliError((err as Error).message);
-    }
-    const [path, ...extra] = parsed.positionals;
-    if (path === undefined) throw new CliError('missing the machine model file (usage: kinespec frequencies <machine.json>)');
-    if (extra.length > 0) throw new CliError(`unexpected argument '${extra[0]}'`);
-    const v = parsed.values;
-    const speedRpmFlag = positive('speed-rpm', v['speed-rpm']);
-    const harmonics = wholeNumber('harmonics', v.harmonics);
-    const sidebands = wholeNumber('sidebands', v.sidebands);
-    const sampleRateHz = positive('sample-rate-hz', v['sample-rate-hz']);
-    const resolutionHz = positive('resolution-hz', v['resolution-hz']);
+    const { values: v, positionals } = parseFlags(
+      args,
+      {
+        'speed-rpm': { type: 'string' },
+        json: { type: 'boolean', default: false },
+        harmonics: { type: 'string' },
+        sidebands: { type: 'string' },
+        'sample-rate-hz': { type: 'string' },
+        'resolution-hz': { type: 'string' },
+      },
+      SHORT_USAGE,
+    );
+    const path = machineFileArgument(positionals, SHORT_USAGE);
+    const speedRpmFlag = positiveNumber('speed-rpm', v['speed-rpm']);
+    const harmonics = wholeNumber('harmonics', v.harmonics, 0);
+    const sidebands = wholeNumber('sidebands', v.sidebands, 0);
+    const sampleRateHz = positiveNumber('sample-rate-hz', v['sample-rate-hz']);
+    const resolutionHz = positiveNumber('resolution-hz', v['resolution-hz']);
     if ((sampleRateHz === undefined) !== (resolutionHz === undefined)) {
       throw new CliError('--sample-rate-hz and --resolution-hz go together (both describe the recording)');
     }
@@ -135,7 +112,7 @@ export const frequenciesVerb: Verb = {
       out.push(`note: ${speedRpm} rpm is outside the model's speed range ${range.minRpm}-${range.maxRpm} rpm`);
     }
     out.push('', 'Shafts');
-    out.push(...table(
+    out.push(...alignColumns(
       [['shaft', 'ratio', 'rpm', 'Hz', 'via'], ...shafts.map((s) => [s.shaft, s.ratio.toPrecision(6), fixed(s.speedRpm, 2), fixed(s.speedHz, 4), s.via.join(' > ')])],
       new Set([1, 2, 3]),
     ).map((l) => `  ${l}`));
@@ -152,7 +129,7 @@ export const frequenciesVerb: Verb = {
       out.push('', componentTitle(model, group[0]!));
       const sorted = [...group].sort((a, b) => a.frequencyHz - b.frequencyHz);
       const rows = [['Hz', 'order', 'line', 'formula', 'flags'], ...sorted.map((l) => [fixed(l.frequencyHz, 3), fixed(l.order, 4), l.label, l.formula, flagText(l)])];
-      out.push(...table(rows, new Set([0, 1])).map((l) => `  ${l}`));
+      out.push(...alignColumns(rows, new Set([0, 1])).map((l) => `  ${l}`));
     }
     io.out(out.join('\n'));
     return 0;

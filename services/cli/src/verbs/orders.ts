@@ -1,6 +1,4 @@
-import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
-import { parseArgs } from 'node:util';
 import { MachineModelError, shaftRatios, type MachineModel } from '@kinespec/kinematics';
 import {
   SignalInputError,
@@ -16,15 +14,16 @@ import {
   shaftSynchronousAverage,
   speedFromPulses,
   type AngleInterpolation,
-  decodeRecording,
   type Channel,
   type Recording,
   type SpectrumScaling,
 } from '@kinespec/signal';
 import { CliError } from '../cli-error.js';
+import { oneOf, parseFlags, positiveNumber, wholeNumber } from '../flags.js';
 import { loadMachineFile } from '../machine-file.js';
+import { decoderHint, loadRecordingFile, recordingFileArgument, selectChannel, withFileNameOnInputErrors, type DecoderHint } from '../recording-file.js';
+import { significant } from '../significant-figures.js';
 import type { Verb } from '../verb.js';
-import { selectChannel } from './spectrum.js';
 
 const USAGE =
   'kinespec orders <recording> --machine <machine.json> --tach-channel N|name [--channel N|name] [--shaft id] ' +
@@ -93,50 +92,28 @@ export interface OrdersReport {
   values: number[];
 }
 
-function oneOf<T extends string>(flag: string, value: string | undefined, allowed: readonly T[], fallback: T): T {
-  if (value === undefined) return fallback;
-  if (!(allowed as readonly string[]).includes(value)) throw new CliError(`--${flag} must be one of ${allowed.join(', ')} (got '${value}')`);
-  return value as T;
-}
-
-function numberFlag(flag: string, text: string | undefined, check: (v: number) => boolean, rule: string): number | undefined {
-  if (text === undefined) return undefined;
-  const v = Number(text);
-  if (text.trim() === '' || !Number.isFinite(v) || !check(v)) throw new CliError(`--${flag} must be ${rule} (got '${text}')`);
-  return v;
-}
-
-function parseSettings(args: string[]): { file: string; settings: OrdersSettings; json: boolean; sampleRateHz?: number; unit?: string } {
-  let parsed;
-  try {
-    parsed = parseArgs({
-      args,
-      allowPositionals: true,
-      strict: true,
-      options: {
-        machine: { type: 'string' },
-        'tach-channel': { type: 'string' },
-        channel: { type: 'string' },
-        shaft: { type: 'string' },
-        'pulse-shaft': { type: 'string' },
-        'pulses-per-rev': { type: 'string' },
-        'max-order': { type: 'string' },
-        'samples-per-rev': { type: 'string' },
-        scaling: { type: 'string' },
-        interpolation: { type: 'string' },
-        tsa: { type: 'boolean' },
-        'sample-rate': { type: 'string' },
-        unit: { type: 'string' },
-        json: { type: 'boolean' },
-      },
-    });
-  } catch (err) {
-    throw new CliError(`${(err as Error).message.split('\n')[0]} (usage: ${USAGE})`);
-  }
-  const { values: v, positionals } = parsed;
-  if (positionals.length !== 1) {
-    throw new CliError(positionals.length === 0 ? `a recording file is required (usage: ${USAGE})` : `one recording file at a time (got ${positionals.length})`);
-  }
+function parseSettings(args: string[]): { file: string; settings: OrdersSettings; json: boolean; hint: DecoderHint } {
+  const { values: v, positionals } = parseFlags(
+    args,
+    {
+      machine: { type: 'string' },
+      'tach-channel': { type: 'string' },
+      channel: { type: 'string' },
+      shaft: { type: 'string' },
+      'pulse-shaft': { type: 'string' },
+      'pulses-per-rev': { type: 'string' },
+      'max-order': { type: 'string' },
+      'samples-per-rev': { type: 'string' },
+      scaling: { type: 'string' },
+      interpolation: { type: 'string' },
+      tsa: { type: 'boolean' },
+      'sample-rate': { type: 'string' },
+      unit: { type: 'string' },
+      json: { type: 'boolean' },
+    },
+    USAGE,
+  );
+  const file = recordingFileArgument(positionals, USAGE);
   if (v.machine === undefined) throw new CliError(`--machine <machine.json> is required: the orders are those of its shafts (usage: ${USAGE})`);
   const settings: OrdersSettings = {
     machinePath: v.machine,
@@ -144,16 +121,14 @@ function parseSettings(args: string[]): { file: string; settings: OrdersSettings
     channel: v.channel,
     shaft: v.shaft,
     pulseShaft: v['pulse-shaft'],
-    pulsesPerRev: numberFlag('pulses-per-rev', v['pulses-per-rev'], (x) => Number.isInteger(x) && x >= 1, 'a whole number >= 1'),
-    maxOrder: numberFlag('max-order', v['max-order'], (x) => x > 0, 'an order > 0'),
-    samplesPerRev: numberFlag('samples-per-rev', v['samples-per-rev'], (x) => Number.isInteger(x) && x >= 8, 'a whole number >= 8'),
+    pulsesPerRev: wholeNumber('pulses-per-rev', v['pulses-per-rev'], 1),
+    maxOrder: positiveNumber('max-order', v['max-order'], 'an order > 0'),
+    samplesPerRev: wholeNumber('samples-per-rev', v['samples-per-rev'], 8),
     scaling: oneOf('scaling', v.scaling, SCALINGS, 'peak'),
     interpolation: oneOf('interpolation', v.interpolation, INTERPOLATIONS, 'sinc'),
     tsa: v.tsa === true,
   };
-  const sampleRateHz = numberFlag('sample-rate', v['sample-rate'], (x) => x > 0, 'a sample rate in Hz > 0');
-  if (v.unit !== undefined && v.unit.trim() === '') throw new CliError('--unit must name a unit, e.g. g, m/s^2, mm/s');
-  return { file: positionals[0]!, settings, json: v.json === true, sampleRateHz, unit: v.unit };
+  return { file, settings, json: v.json === true, hint: decoderHint(v['sample-rate'], v.unit) };
 }
 
 /**
@@ -162,13 +137,7 @@ function parseSettings(args: string[]): { file: string; settings: OrdersSettings
  * channel named after a tach or encoder point of the model.
  */
 function pulseChannelOf(recording: Recording, model: MachineModel, selector: string | undefined): Channel {
-  if (selector !== undefined) {
-    try {
-      return selectChannel(recording, selector);
-    } catch (err) {
-      throw new CliError(`--tach-${(err as Error).message.replace(/^--/, '')}`);
-    }
-  }
+  if (selector !== undefined) return selectChannel(recording, selector, 'tach-channel');
   for (const key of ['tachChannel', 'encoderChannel']) {
     const index = Number(recording.metadata[key]);
     if (recording.metadata[key] !== undefined && Number.isInteger(index) && recording.channels[index]) return recording.channels[index];
@@ -194,23 +163,6 @@ function ratioOf(ratios: Map<string, number>, shaft: string, flag: string): numb
   const r = ratios.get(shaft);
   if (r === undefined) throw new CliError(`${flag} '${shaft}' is not a shaft of the machine (shafts: ${[...ratios.keys()].join(', ')})`);
   return r;
-}
-
-/**
- * Reads and decodes the recording. The file's bytes are handed over as a plain Uint8Array view, not the
- * Node Buffer readFileSync returns: Buffer.slice shares memory where Uint8Array.slice copies, and the WAV
- * decoder copies unaligned float data with slice.
- */
-function loadRecording(path: string, hint: { sampleRateHz?: number; unit?: string }): Recording {
-  let buffer: Buffer;
-  try {
-    buffer = readFileSync(path);
-  } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a directory' : code === 'EACCES' ? 'permission denied' : String(code ?? err);
-    throw new CliError(`cannot read '${path}': ${why}`);
-  }
-  return decodeRecording(new Uint8Array(buffer.buffer, buffer.byteOffset, buffer.byteLength), { filename: basename(path), ...hint });
 }
 
 /** The whole analysis behind the verb: recording and model in, the report out. */
@@ -324,11 +276,9 @@ function gearTsa(
   return out;
 }
 
+/** Indicators a gear's average could not give are null: printed as '-'. */
 function sig(x: number | null, digits = 4): string {
-  if (x === null || Number.isNaN(x)) return '-';
-  if (x === 0) return '0';
-  const a = Math.abs(x);
-  return a >= 1e-3 && a < 1e6 ? String(Number(x.toPrecision(digits))) : x.toExponential(digits - 1);
+  return x === null || Number.isNaN(x) ? '-' : significant(x, digits);
 }
 
 function summary(r: OrdersReport): string {
@@ -372,19 +322,9 @@ export const ordersVerb: Verb = {
     'Channels are given by name or 1-based number. Default scaling peak.',
   usage: USAGE,
   async run(args, io) {
-    const { file, settings, json, sampleRateHz, unit } = parseSettings(args);
+    const { file, settings, json, hint } = parseSettings(args);
     const model = loadMachineFile(settings.machinePath, io);
-    const hint: { sampleRateHz?: number; unit?: string } = {};
-    if (sampleRateHz !== undefined) hint.sampleRateHz = sampleRateHz;
-    if (unit !== undefined) hint.unit = unit;
-    let report: OrdersReport;
-    try {
-      const recording = loadRecording(file, hint);
-      report = analyseOrders(recording, model, basename(file), settings);
-    } catch (err) {
-      if (err instanceof SignalInputError) throw new CliError(`${basename(file)}: ${err.message}`);
-      throw err;
-    }
+    const report = withFileNameOnInputErrors(file, () => analyseOrders(loadRecordingFile(file, hint), model, basename(file), settings));
     io.out(json ? JSON.stringify(report) : summary(report));
     return 0;
   },

@@ -1,31 +1,18 @@
-import { parseArgs } from 'node:util';
 import {
-  faultKinds, isFaultKind, predictSignature, SignatureInputError, toothDropShapes, type Signature, type SignatureOptions, type ToothDropShape,
+  faultKinds, predictSignature, SignatureInputError, toothDropShapes, type Signature, type SignatureOptions,
 } from '@kinespec/signatures';
 import { CliError } from '../cli-error.js';
-import { loadMachineFile } from '../machine-file.js';
+import { numberFlag, oneOf, parseFlags, positiveNumber, wholeNumber } from '../flags.js';
+import { loadMachineFile, machineFileArgument } from '../machine-file.js';
+import { significant } from '../significant-figures.js';
+import { alignColumns } from '../text-table.js';
 import type { Verb } from '../verb.js';
 
-function number(name: string, text: string | undefined, rule: (v: number) => boolean, what: string): number | undefined {
-  if (text === undefined) return undefined;
-  const value = Number(text);
-  if (text.trim() === '' || !rule(value)) throw new CliError(`--${name} must be ${what} (got '${text}')`);
-  return value;
-}
-const positive = (name: string, text: string | undefined) => number(name, text, (v) => Number.isFinite(v) && v > 0, 'a number > 0');
-const whole = (name: string, text: string | undefined, min: number) => number(name, text, (v) => Number.isInteger(v) && v >= min, `a whole number >= ${min}`);
+/** The one-line usage that error messages end with; `--help` prints the full one. */
+const SHORT_USAGE = 'kinespec signature <machine.json> --fault <kind> --component <id>';
 
-/** 4 significant figures, exponent form for small or large values. */
-function sig(x: number): string {
-  if (x === 0) return '0';
-  const a = Math.abs(x);
-  return a >= 1e-3 && a < 1e5 ? Number(x.toPrecision(4)).toString() : x.toExponential(3);
-}
-
-function table(rows: string[][], right: ReadonlySet<number>): string[] {
-  const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => r[c]!.length)));
-  return rows.map((r) => r.map((cell, c) => (right.has(c) ? cell.padStart(widths[c]!) : cell.padEnd(widths[c]!))).join('  ').trimEnd());
-}
+/** 4 significant figures, exponent form below 0.001 and from 1e5 up. */
+const sig = (x: number) => significant(x, 4, 1e5);
 
 function text(s: Signature, modelId: string): string[] {
   const out: string[] = [];
@@ -48,7 +35,7 @@ function text(s: Signature, modelId: string): string[] {
       sig(l.excitationCoefficient.amplitude), sig(l.magnification), sig(l.amplitude), ((l.phaseRad * 180) / Math.PI).toFixed(1), l.label,
     ]);
   }
-  out.push(...table(rows, new Set([0, 1, 2, 3, 4, 5, 6])));
+  out.push(...alignColumns(rows, new Set([0, 1, 2, 3, 4, 5, 6])));
   if (s.warnings.length) {
     out.push('', 'warnings:');
     for (const w of s.warnings) out.push(`  ${w.kind === 'resonance' ? 'RESONANCE ' : ''}${w.message}`);
@@ -79,52 +66,42 @@ export const signatureVerb: Verb = {
     'Predictions support, and never replace, the judgement of a qualified engineer.',
   ].join('\n'),
   async run(args, io) {
-    let parsed;
-    try {
-      parsed = parseArgs({
-        args,
-        allowPositionals: true,
-        options: {
-          fault: { type: 'string' },
-          component: { type: 'string' },
-          'speed-rpm': { type: 'string' },
-          point: { type: 'string' },
-          harmonics: { type: 'string' },
-          sidebands: { type: 'string' },
-          'mean-torque-nm': { type: 'string' },
-          'transfer-radius-mm': { type: 'string' },
-          depth: { type: 'string' },
-          shape: { type: 'string' },
-          ripple: { type: 'string' },
-          json: { type: 'boolean', default: false },
-        },
-      });
-    } catch (err) {
-      throw new CliError((err as Error).message);
-    }
-    const [path, ...extra] = parsed.positionals;
-    if (path === undefined) throw new CliError('missing the machine model file (usage: kinespec signature <machine.json> --fault <kind> --component <id>)');
-    if (extra.length > 0) throw new CliError(`unexpected argument '${extra[0]}'`);
-    const v = parsed.values;
+    const { values: v, positionals } = parseFlags(
+      args,
+      {
+        fault: { type: 'string' },
+        component: { type: 'string' },
+        'speed-rpm': { type: 'string' },
+        point: { type: 'string' },
+        harmonics: { type: 'string' },
+        sidebands: { type: 'string' },
+        'mean-torque-nm': { type: 'string' },
+        'transfer-radius-mm': { type: 'string' },
+        depth: { type: 'string' },
+        shape: { type: 'string' },
+        ripple: { type: 'string' },
+        json: { type: 'boolean', default: false },
+      },
+      SHORT_USAGE,
+    );
+    const path = machineFileArgument(positionals, SHORT_USAGE);
     if (v.fault === undefined) throw new CliError(`--fault is required: one of ${faultKinds.join(', ')}`);
-    if (!isFaultKind(v.fault)) throw new CliError(`--fault must be one of ${faultKinds.join(', ')} (got '${v.fault}')`);
+    const fault = oneOf('fault', v.fault, faultKinds);
     if (v.component === undefined) throw new CliError('--component is required: the id of the shaft, rotor, gear, gear mesh, bearing or motor');
-    if (v.shape !== undefined && !(toothDropShapes as readonly string[]).includes(v.shape)) {
-      throw new CliError(`--shape must be one of ${toothDropShapes.join(', ')} (got '${v.shape}')`);
-    }
-    const depth = number('depth', v.depth, (x) => Number.isFinite(x) && x > 0 && x <= 1, 'a fraction > 0 and <= 1');
-    const ripple = number('ripple', v.ripple, (x) => Number.isFinite(x) && x >= 0 && x <= 10, 'a number from 0 to 10');
+    const dropShape = oneOf('shape', v.shape, toothDropShapes);
+    const depth = numberFlag('depth', v.depth, (x) => x > 0 && x <= 1, 'a fraction > 0 and <= 1');
+    const ripple = numberFlag('ripple', v.ripple, (x) => x >= 0 && x <= 10, 'a number from 0 to 10');
     const options: SignatureOptions = {
-      fault: v.fault,
+      fault,
       component: v.component,
-      speedRpm: positive('speed-rpm', v['speed-rpm']),
+      speedRpm: positiveNumber('speed-rpm', v['speed-rpm']),
       point: v.point,
-      harmonics: whole('harmonics', v.harmonics, 1),
-      sidebands: whole('sidebands', v.sidebands, 0),
-      meanTorqueNm: positive('mean-torque-nm', v['mean-torque-nm']),
-      transferRadiusMm: positive('transfer-radius-mm', v['transfer-radius-mm']),
+      harmonics: wholeNumber('harmonics', v.harmonics, 1),
+      sidebands: wholeNumber('sidebands', v.sidebands, 0),
+      meanTorqueNm: positiveNumber('mean-torque-nm', v['mean-torque-nm']),
+      transferRadiusMm: positiveNumber('transfer-radius-mm', v['transfer-radius-mm']),
       depthFraction: depth,
-      dropShape: v.shape as ToothDropShape | undefined,
+      dropShape,
       rippleFraction: ripple,
     };
 

@@ -1,16 +1,12 @@
-import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
-import { parseArgs } from 'node:util';
 import {
   DEFAULT_SEGMENT_LENGTH,
   ISO_VELOCITY_BAND_HZ,
   PREFERRED_UNIT,
-  SignalInputError,
   WINDOW_NAMES,
   bandRms,
   clipBandToNyquist,
   convertUnit,
-  decodeRecording,
   envelopeSpectrum,
   findPeaks,
   integrateSignal,
@@ -22,7 +18,6 @@ import {
   welchSpectrum,
   withScaling,
   type BandHz,
-  type Channel,
   type DetrendMode,
   type Quantity,
   type Recording,
@@ -31,6 +26,9 @@ import {
   type WindowName,
 } from '@kinespec/signal';
 import { CliError } from '../cli-error.js';
+import { numberFlag, oneOf, parseBand, parseFlags, wholeNumber } from '../flags.js';
+import { decoderHint, loadRecordingFile, recordingFileArgument, selectChannel, withFileNameOnInputErrors, type DecoderHint } from '../recording-file.js';
+import { significant as sig } from '../significant-figures.js';
 import type { Verb } from '../verb.js';
 
 const USAGE =
@@ -56,100 +54,41 @@ export interface SpectrumSettings {
   envelopeBandHz?: BandHz;
 }
 
-function oneOf<T extends string>(flag: string, value: string | undefined, allowed: readonly T[], fallback: T): T {
-  if (value === undefined) return fallback;
-  if (!(allowed as readonly string[]).includes(value)) throw new CliError(`--${flag} must be one of ${allowed.join(', ')} (got '${value}')`);
-  return value as T;
-}
-
-function numberFlag(flag: string, text: string | undefined, check: (v: number) => boolean, rule: string): number | undefined {
-  if (text === undefined) return undefined;
-  const v = Number(text);
-  if (text.trim() === '' || !Number.isFinite(v) || !check(v)) throw new CliError(`--${flag} must be ${rule} (got '${text}')`);
-  return v;
-}
-
-/** 'LOW-HIGH' in Hz, e.g. '10-1000' or '2000-8000'. */
-export function parseBand(flag: string, text: string | undefined): BandHz | undefined {
-  if (text === undefined) return undefined;
-  const m = /^\s*(\d+(?:\.\d+)?)\s*-\s*(\d+(?:\.\d+)?)\s*$/.exec(text);
-  const lo = m ? Number(m[1]) : NaN;
-  const hi = m ? Number(m[2]) : NaN;
-  if (!m || !(hi > lo)) throw new CliError(`--${flag} must be LOW-HIGH in Hz with LOW < HIGH, e.g. 10-1000 (got '${text}')`);
-  return [lo, hi];
-}
-
-/** Reads and decodes a recording file; the file name's extension helps pick the decoder. */
-export function loadRecordingFile(path: string, hint: { sampleRateHz?: number; unit?: string } = {}): Recording {
-  let bytes: Uint8Array;
-  try {
-    bytes = readFileSync(path);
-  } catch (err) {
-    const code = (err as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a directory' : code === 'EACCES' ? 'permission denied' : String(code ?? err);
-    throw new CliError(`cannot read '${path}': ${why}`);
-  }
-  return decodeRecording(bytes, { filename: basename(path), ...hint });
-}
-
-/** --channel: an exact channel name, else a 1-based channel number; default the first channel. */
-export function selectChannel(recording: Recording, selector: string | undefined): Channel {
-  const channels = recording.channels;
-  if (selector === undefined) return channels[0];
-  const byName = channels.find((c) => c.name === selector);
-  if (byName) return byName;
-  const n = Number(selector);
-  if (Number.isInteger(n) && n >= 1 && n <= channels.length) return channels[n - 1];
-  const names = channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ');
-  throw new CliError(`--channel '${selector}' matches no channel; the recording has ${names}`);
-}
-
-function parseSettings(args: string[]): { file: string; settings: SpectrumSettings; json: boolean; sampleRateHz?: number; unit?: string } {
-  let parsed;
-  try {
-    parsed = parseArgs({
-      args,
-      allowPositionals: true,
-      strict: true,
-      options: {
-        channel: { type: 'string' },
-        window: { type: 'string' },
-        segment: { type: 'string' },
-        overlap: { type: 'string' },
-        scaling: { type: 'string' },
-        quantity: { type: 'string' },
-        'sample-rate': { type: 'string' },
-        unit: { type: 'string' },
-        detrend: { type: 'string' },
-        band: { type: 'string' },
-        envelope: { type: 'string' },
-        json: { type: 'boolean' },
-      },
-    });
-  } catch (err) {
-    throw new CliError(`${(err as Error).message.split('\n')[0]} (usage: ${USAGE})`);
-  }
-  const { values: v, positionals } = parsed;
-  if (positionals.length !== 1) {
-    throw new CliError(positionals.length === 0 ? `a recording file is required (usage: ${USAGE})` : `one recording file at a time (got ${positionals.length})`);
-  }
-  const segmentLength =
-    numberFlag('segment', v.segment, (x) => Number.isInteger(x) && x >= 16, 'a whole number of samples >= 16') ?? DEFAULT_SEGMENT_LENGTH;
+function parseSettings(args: string[]): { file: string; settings: SpectrumSettings; json: boolean; hint: DecoderHint } {
+  const { values: v, positionals } = parseFlags(
+    args,
+    {
+      channel: { type: 'string' },
+      window: { type: 'string' },
+      segment: { type: 'string' },
+      overlap: { type: 'string' },
+      scaling: { type: 'string' },
+      quantity: { type: 'string' },
+      'sample-rate': { type: 'string' },
+      unit: { type: 'string' },
+      detrend: { type: 'string' },
+      band: { type: 'string' },
+      envelope: { type: 'string' },
+      json: { type: 'boolean' },
+    },
+    USAGE,
+  );
+  const file = recordingFileArgument(positionals, USAGE);
+  const segmentLength = wholeNumber('segment', v.segment, 16, 'a whole number of samples >= 16') ?? DEFAULT_SEGMENT_LENGTH;
   const overlapFraction = numberFlag('overlap', v.overlap, (x) => x >= 0 && x < 1, 'a fraction >= 0 and < 1') ?? 0.5;
-  const sampleRateHz = numberFlag('sample-rate', v['sample-rate'], (x) => x > 0, 'a sample rate in Hz > 0');
-  if (v.unit !== undefined && v.unit.trim() === '') throw new CliError('--unit must name a unit, e.g. g, m/s^2, mm/s');
+  const hint = decoderHint(v['sample-rate'], v.unit);
   const settings: SpectrumSettings = {
     channel: v.channel,
     window: oneOf('window', v.window, WINDOW_NAMES, 'hann'),
     segmentLength,
     overlapFraction,
     scaling: oneOf('scaling', v.scaling, SCALINGS, 'rms'),
-    quantity: v.quantity === undefined ? undefined : oneOf('quantity', v.quantity, QUANTITIES, 'acceleration'),
+    quantity: oneOf('quantity', v.quantity, QUANTITIES),
     detrend: oneOf('detrend', v.detrend, DETRENDS, 'mean'),
     bandHz: parseBand('band', v.band),
     envelopeBandHz: parseBand('envelope', v.envelope),
   };
-  return { file: positionals[0], settings, json: v.json === true, sampleRateHz, unit: v.unit };
+  return { file, settings, json: v.json === true, hint };
 }
 
 export interface SpectrumReport {
@@ -179,7 +118,7 @@ export interface SpectrumReport {
 }
 
 /** The whole analysis behind the verb: channel samples in, the report the verb prints out. */
-export function analyseRecording(recording: Recording, file: string, settings: SpectrumSettings): SpectrumReport {
+export function spectrumReport(recording: Recording, file: string, settings: SpectrumSettings): SpectrumReport {
   const channel = selectChannel(recording, settings.channel);
   const fs = recording.sampleRateHz;
   const notes: string[] = [];
@@ -291,12 +230,6 @@ export function analyseRecording(recording: Recording, file: string, settings: S
   };
 }
 
-function sig(x: number, digits = 4): string {
-  if (x === 0) return '0';
-  const a = Math.abs(x);
-  return a >= 1e-3 && a < 1e6 ? String(Number(x.toPrecision(digits))) : x.toExponential(digits - 1);
-}
-
 const WINDOW_TITLE: Record<WindowName, string> = {
   rectangular: 'rectangular',
   hann: 'Hann',
@@ -339,18 +272,8 @@ export const spectrumVerb: Verb = {
     'the overall band is the whole spectrum, or 10-1000 Hz in mm/s for --quantity velocity. --channel takes a name or a 1-based number.',
   usage: USAGE,
   async run(args, io) {
-    const { file, settings, json, sampleRateHz, unit } = parseSettings(args);
-    const hint: { sampleRateHz?: number; unit?: string } = {};
-    if (sampleRateHz !== undefined) hint.sampleRateHz = sampleRateHz;
-    if (unit !== undefined) hint.unit = unit;
-    let report: SpectrumReport;
-    try {
-      const recording = loadRecordingFile(file, hint);
-      report = analyseRecording(recording, basename(file), settings);
-    } catch (err) {
-      if (err instanceof SignalInputError) throw new CliError(`${basename(file)}: ${err.message}`);
-      throw err;
-    }
+    const { file, settings, json, hint } = parseSettings(args);
+    const report = withFileNameOnInputErrors(file, () => spectrumReport(loadRecordingFile(file, hint), basename(file), settings));
     io.out(json ? JSON.stringify(report) : summary(report));
     return 0;
   },
