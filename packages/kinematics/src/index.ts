@@ -12,3 +12,4 @@ export * from './motor-frequencies.js';
 export * from './component-lines.js';
 export * from './line-flags.js';
 export * from './torsional-couplings.js';
+export * from './fault-kinds.js';
