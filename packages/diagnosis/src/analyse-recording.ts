@@ -32,6 +32,7 @@ import { evidenceOf, scoreCandidates, type Candidate } from './hypothesis-score.
 import { gradeSeverity, isoBandHz } from './iso-zones.js';
 import { lineToleranceHz, matchableSpectrum, matchLine, strongPeaks, type LineMatch, type MatchableSpectrum } from './line-matching.js';
 import { angleSpectra, type AngleSpectra } from './order-tracking.js';
+import { gearSynchronousAverages, gearTsaIndicators, type GearTsa } from './gear-tsa.js';
 import { reasonFor } from './reason.js';
 import type { Hypothesis, RecordingAnalysis, SpeedSource } from './recording-analysis.js';
 import { speedFromSpectrum } from './running-speed.js';
@@ -58,6 +59,8 @@ export interface AnalyseOptions {
   maxPlotPoints?: number;
   /** 'auto' (default): the angle domain when a tach or encoder channel gives pulses; 'frequency' forces the frequency domain. */
   domain?: 'auto' | 'frequency' | 'angle';
+  /** When given, each stage of the analysis adds its wall time here (ms, keyed by stage), for benchmarks; never changes the result. */
+  stageTimesMs?: Record<string, number>;
 }
 
 /** Lines closer than this SNR to the floor are not peaks worth listing or matching. */
@@ -71,6 +74,7 @@ const UNEXPLAINED_MIN_SNR_DB = 12;
  * the machine model. Pure and deterministic: the same recording and options give the same object.
  */
 export function analyseRecording(recording: Recording, options: AnalyseOptions = {}): RecordingAnalysis {
+  const lap = stageClock(options.stageTimesMs);
   const warnings: string[] = [];
   const model = options.model ?? null;
   if (!recording || !Array.isArray(recording.channels) || recording.channels.length === 0) {
@@ -100,6 +104,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   // Time-domain indicators, on acceleration.
   const acceleration = accelerationSignal(samples, fs, unit);
   const time = timeIndicators(acceleration.samples.length > 0 ? acceleration.samples : samples);
+  lap('time indicators');
 
   // The spectrum: resolution fine enough for the slowest shaft's sidebands, at least 3 averages where the record allows.
   const ratios = model ? shaftRatios(model) : [];
@@ -107,12 +112,15 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   const slowestHz = nominalHz !== null && ratios.length > 0 ? Math.min(...ratios.map((r) => r.ratio)) * (speedRangeRpm(model!).minRpm / 60) : null;
   const segmentLength = chooseSegmentLength(samples.length, fs, slowestHz);
   const spectrum = welchSpectrum(samples, fs, { segmentLength, overlapFraction: 0.5, scaling: 'peak', unit, window: 'hann' });
+  lap('spectrum');
   const measured = matchableSpectrum(spectrum, noiseFloor(spectrum));
+  lap('spectrum noise floor');
 
   // Running speed.
   const speed = model ? runningSpeed(recording, tachIndex, model, options, measured, warnings) : null;
   const speedHz = speed?.speedHz ?? (options.speedRpm !== undefined ? options.speedRpm / 60 : null);
   const speedSource: SpeedSource | null = speed?.source ?? (options.speedRpm !== undefined ? 'given' : null);
+  lap('running speed');
 
   // Overall velocity and severity.
   const bandHz = isoBandHz(speedHz !== null ? speedHz * 60 : null);
@@ -132,11 +140,12 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
     tripVelocityRmsMmPerS: point?.tripVelocityRmsMmPerS ?? null,
     baselineVelocityRmsMmPerS: baselineVelocity,
   });
+  lap('overall velocity');
 
   // Envelope spectrum, when the machine has rolling bearings (or no model says otherwise).
   let envelope: { band: EnvelopeBand; spectrum: Spectrum; measured: MatchableSpectrum } | null = null;
   if (!model || model.bearings.length > 0) {
-    envelope = envelopeAnalysis(samples, fs, unit, model, point, speedHz, warnings);
+    envelope = envelopeAnalysis(samples, fs, unit, model, point, speedHz, warnings, lap);
   }
 
   // The angle domain: with tach or encoder pulses, match in orders of the reference shaft (no speed error, no smearing).
@@ -145,7 +154,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   if (wantAngle && model && speed?.pulses) {
     const ratios = shaftRatios(model).map((r) => r.ratio);
     try {
-      angle = angleSpectra(samples, fs, unit, speed.pulses, { envelopeBandHz: envelope?.band.bandHz ?? null, slowestOrder: Math.min(1, ...ratios) });
+      angle = angleSpectra(samples, fs, unit, speed.pulses, { envelopeBandHz: envelope?.band.bandHz ?? null, slowestOrder: Math.min(1, ...ratios) }, lap);
       if (!angle) warnings.push('the record holds fewer than 4 revolutions: analysed in the frequency domain');
     } catch (err) {
       warnings.push(`order tracking failed (${err instanceof Error ? err.message : String(err)}): analysed in the frequency domain`);
@@ -153,6 +162,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   } else if (options.domain === 'angle') {
     warnings.push('the angle domain needs a tach or encoder channel: analysed in the frequency domain');
   }
+  lap('angle domain');
 
   // Hypotheses.
   let hypotheses: Hypothesis[] = [];
@@ -161,6 +171,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   if (model && speedHz !== null && point) {
     const uncertaintyHz = speed?.uncertaintyHz ?? 0.02 * speedHz;
     catalogue = catalogueLines(model, speedHz);
+    lap('catalogue');
     const limits: CandidateLimits = {
       spectrumTopHz: spectrum.frequenciesHz[spectrum.frequenciesHz.length - 2]!,
       spectrumLowHz: 2 * spectrum.frequencyResolutionHz,
@@ -169,6 +180,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
       maxLines: 48,
     };
     const candidates = buildCandidates(model, point, speedHz, unit, limits, warnings);
+    lap('candidates');
     const isoAb = severity.boundaries?.abMmPerS ?? 1.4;
     // In the angle domain every frequency is an order (Hz of the reference shaft = 1) and converts back by the mean speed.
     const unitHz = angle ? speedHz : 1;
@@ -188,7 +200,9 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
         })),
       }))
       : candidates;
+    lap('candidates');
     const cepstrum = powerCepstrumOf(main.spectrum);
+    lap('cepstrum');
     const scored = scoreCandidates(scoringCandidates, {
       spectra: { spectrum: main, envelope: envelopeMeasured },
       speedUncertaintyHz: angle ? 0 : uncertaintyHz,
@@ -205,6 +219,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
         }),
       support: (c) => supportOf(c, model, lineSpeed, cepstrum),
     });
+    lap('scoring');
     hypotheses = scored
       .map((s) => {
         const domain = angle && s.candidate.domain === 'spectrum' ? 'order' : s.candidate.domain;
@@ -226,11 +241,13 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
     for (const s of scored) {
       for (const m of s.matches) if (m.matched && (s.candidate.domain === 'spectrum' || s.score >= 0.5)) matchedHz.push(m.measuredHz! * unitHz);
     }
+    lap('hypotheses');
   } else if (model && !point) {
     warnings.push('the model has no vibration point for this channel; no fault hypotheses scored');
   }
 
   const unexplainedPeaks = unexplained(spectrum, measured, catalogue.filter((l) => !l.bearing), matchedHz, speedHz, speed?.uncertaintyHz ?? 0);
+  lap('unexplained peaks');
   const maxPlotPoints = options.maxPlotPoints ?? 2048;
   const plot = downsampleForPlot(spectrum, maxPlotPoints);
   const indicators: Record<string, number> = {
@@ -248,6 +265,14 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
     if (envelope.band.kurtosis !== undefined) indicators.kurtogram_kurtosis = envelope.band.kurtosis;
   }
   for (const h of hypotheses) indicators[`score:${h.fault}:${h.component}`] = h.score;
+  // With the shaft angle known, every gear's synchronous average and its FM0/FM4/NA4 (trended by the service).
+  let gearTsa: GearTsa[] | undefined;
+  if (angle && model && model.gearMeshes.length > 0) {
+    const ratioOf = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
+    gearTsa = gearSynchronousAverages(samples, fs, angle.shaftAngle, model, (shaft) => ratioOf.get(shaft)!);
+    Object.assign(indicators, gearTsaIndicators(gearTsa));
+    lap('gear synchronous averages');
+  }
 
   const analysis: RecordingAnalysis = {
     softwareVersion: SOFTWARE_VERSION,
@@ -280,6 +305,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
     hypotheses,
     unexplainedPeaks,
     warnings,
+    ...(gearTsa ? { gearTsa } : {}),
     channel: channelIndex,
     pointId: point?.id ?? null,
   };
@@ -297,7 +323,19 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
       bandSource: envelope.band.source,
     };
   }
+  lap('plots and result');
   return analysis;
+}
+
+/** A lap timer adding each stage's wall time to `into` (a no-op without it). */
+function stageClock(into: Record<string, number> | undefined): (stage: string) => void {
+  if (!into) return () => {};
+  let last = performance.now();
+  return (stage) => {
+    const now = performance.now();
+    into[stage] = (into[stage] ?? 0) + (now - last);
+    last = now;
+  };
 }
 
 function defaultUnit(quantity: 'acceleration' | 'velocity' | 'displacement'): string {
@@ -459,6 +497,7 @@ function envelopeAnalysis(
   point: Point | null,
   speedHz: number | null,
   warnings: string[],
+  lap: (stage: string) => void = () => {},
 ): { band: EnvelopeBand; spectrum: Spectrum; measured: MatchableSpectrum } | null {
   // The band must hold the fault lines and their sidebands: 3.5 × the highest first-order defect frequency.
   let highestDefectHz = 0;
@@ -476,6 +515,7 @@ function envelopeAnalysis(
     return null;
   }
   const band = envelopeBand(samples, fs, { resonances: point?.resonances ?? [], minBandwidthHz });
+  lap(band.source === 'kurtogram' ? 'envelope band (kurtogram)' : 'envelope band (resonance)');
   // Envelope resolution: a quarter of the slowest bearing shaft's speed (sidebands at shaft speed and FTF).
   const wantHz = Number.isFinite(slowestBearingShaftHz) ? slowestBearingShaftHz / 4 : 1;
   let segment = 4096;
@@ -484,7 +524,10 @@ function envelopeAnalysis(
   while (largest * 2 <= samples.length) largest *= 2;
   segment = Math.min(segment, largest >= 16384 ? largest / 2 : largest);
   const spectrum = envelopeSpectrum(samples, fs, { bandHz: band.bandHz, squared: true, segmentLength: segment, scaling: 'peak', unit, window: 'hann' });
-  return { band, spectrum, measured: matchableSpectrum(spectrum, noiseFloor(spectrum)) };
+  lap('envelope spectrum');
+  const measured = matchableSpectrum(spectrum, noiseFloor(spectrum));
+  lap('envelope noise floor');
+  return { band, spectrum, measured };
 }
 
 const onlyBearingFamilies = {

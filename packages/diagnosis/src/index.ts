@@ -36,3 +36,4 @@ export { speedFromSpectrum, type SpectrumSpeed, type SpectrumSpeedOptions } from
 export { speedFromTach, type TachSpeed } from './tach-speed.js';
 export { LineCatalogue, type CatalogueLine } from './ambiguity.js';
 export { scoreCandidates, evidenceOf, type Candidate, type ScoredCandidate, type ScoreParts, type ScoringInputs } from './hypothesis-score.js';
+export { gearSynchronousAverages, gearTsaIndicators, TSA_MESH_HARMONICS, type GearTsa } from './gear-tsa.js';

@@ -6,6 +6,7 @@ import {
   shaftAngleFromPulses,
   type OrderSpectrum,
   type PulseSpeed,
+  type ShaftAngle,
 } from '@kinespec/signal';
 import { matchableSpectrum, type MatchableSpectrum } from './line-matching.js';
 
@@ -16,6 +17,8 @@ export interface AngleSpectra {
   /** Order spectrum of the squared envelope in the demodulation band, when one was asked for. */
   envelope: { orders: OrderSpectrum; measured: MatchableSpectrum } | null;
   revolutions: number;
+  /** Angle of the reference shaft at every sample (for synchronous averages of other shafts). */
+  shaftAngle: ShaftAngle;
 }
 
 /**
@@ -31,24 +34,31 @@ export function angleSpectra(
   unit: string,
   pulses: PulseSpeed,
   options: { envelopeBandHz: [number, number] | null; slowestOrder: number },
+  lap: (stage: string) => void = () => {},
 ): AngleSpectra | null {
   const angle = shaftAngleFromPulses(pulses, samples.length, sampleRateHz);
   const resampled = resampleToAngle(samples, sampleRateHz, angle, { samplesPerRev: samplesPerRevFor(sampleRateHz, pulses), interpolation: 'sinc' });
+  lap('angle: resampling');
   const segmentRevolutions = segmentRevolutionsFor(resampled.revolutions, options.slowestOrder);
   if (segmentRevolutions === null) return null;
   const orders = orderSpectrum(resampled, { scaling: 'peak', segmentRevolutions, unit });
+  lap('angle: order spectrum');
   const measured = matchableSpectrum(orders.spectrum, noiseFloor(orders.spectrum));
+  lap('angle: noise floor');
   let envelope: AngleSpectra['envelope'] = null;
   if (options.envelopeBandHz) {
     const squared = hilbertEnvelope(samples, { bandHz: options.envelopeBandHz, sampleRateHz, squared: true });
+    lap('angle: envelope');
     // The envelope holds nothing above the band's width: a coarser angle grid is enough.
     const width = options.envelopeBandHz[1] - options.envelopeBandHz[0];
     const spr = powerOfTwoAtLeast((2.56 * width) / pulses.minHz);
     const env = resampleToAngle(squared, sampleRateHz, angle, { samplesPerRev: Math.min(spr, resampled.samplesPerRev), interpolation: 'cubic' });
     const envOrders = orderSpectrum(env, { scaling: 'peak', segmentRevolutions: segmentRevolutionsFor(env.revolutions, options.slowestOrder) ?? env.revolutions, unit: `${unit}^2` });
+    lap('angle: envelope resampling and order spectrum');
     envelope = { orders: envOrders, measured: matchableSpectrum(envOrders.spectrum, noiseFloor(envOrders.spectrum)) };
+    lap('angle: envelope noise floor');
   }
-  return { orders, measured, envelope, revolutions: resampled.revolutions };
+  return { orders, measured, envelope, revolutions: resampled.revolutions, shaftAngle: angle };
 }
 
 function powerOfTwoAtLeast(x: number): number {

@@ -1,4 +1,5 @@
 import type { IsoZone } from './iso-zones.js';
+import type { GearTsa } from './gear-tsa.js';
 
 /** Where the running speed came from. */
 export type SpeedSource = 'tach' | 'encoder' | 'spectrum' | 'given';
@@ -75,6 +76,8 @@ export interface RecordingAnalysis {
   hypotheses: Hypothesis[];
   unexplainedPeaks: Array<{ frequencyHz: number; amplitude: number; snrDb: number }>;
   warnings: string[];
+  /** Time-synchronous average indicators of every gear, when the recording had a tach or encoder channel (angle domain). */
+  gearTsa?: GearTsa[];
   /** The channel and point analysed. */
   channel?: number;
   pointId?: string | null;
