@@ -1,4 +1,4 @@
-import type { Bearing, Gear, GearMesh, MachineModel, Point } from '@kinespec/kinematics';
+import { faultKinds, type Bearing, type FaultKind, type Gear, type GearMesh, type MachineModel, type Point } from '@kinespec/kinematics';
 import type { Channel, Recording } from '@kinespec/signal';
 import { bearingOrders } from './bearing-orders.js';
 import { SimulatorInputError } from './errors.js';
@@ -8,21 +8,8 @@ import { shaftGraph, type ShaftGraph } from './shaft-graph.js';
 import { shaftMotion, type SpeedProfile } from './speed-profile.js';
 import { addFixedTone, addOrderTone, addRing, timesAtRevolutions, type StructuralResonance, type Synth } from './synth.js';
 
-export const faultKinds = [
-  'unbalance',
-  'misalignment',
-  'looseness',
-  'gear-missing-tooth',
-  'gear-broken-tooth',
-  'gear-wear',
-  'gear-eccentricity',
-  'bearing-outer-race',
-  'bearing-inner-race',
-  'bearing-rolling-element',
-  'bearing-cage',
-  'electrical',
-] as const;
-export type FaultKind = (typeof faultKinds)[number];
+// The fault names are the machine-model contract's (shared with the predictor); the physics below is the simulator's own.
+export { faultKinds, type FaultKind } from '@kinespec/kinematics';
 
 /** A fault to build into the recording; `severity` 0 (absent) to 1 (severe). */
 export interface SimulatedFault {
