@@ -103,6 +103,15 @@ async function main(): Promise<void> {
     console.log(`server: PostgreSQL, ${threads} analysis thread(s), ${availableParallelism()} cores; ${CONNECTIONS} connections for ${SECONDS} s; body ${(wav.length / 1024).toFixed(0)} KiB`);
     console.log(`analysed uploads        ${(ok / SECONDS).toFixed(1).padStart(8)} /s   (${ok} x 201, ${result.non2xx} non-2xx, ${result.errors} errors; ${stored!.recordings} recordings, ${stored!.analyses} analyses stored)`);
     console.log(`latency                 p50 ${String(result.latency.p50).padStart(5)} ms   p99 ${String(result.latency.p99).padStart(5)} ms   max ${result.latency.max} ms`);
+    // one upload at a time: where its time goes (the service's Server-Timing header)
+    const phases: Record<string, number[]> = {};
+    for (let i = 0; i < 10; i++) {
+      const res = await fetch(server + path, { method: 'POST', headers: { authorization: `Bearer ${logger.key}`, 'content-type': 'audio/wav', 'idempotency-key': `probe-${i}` }, body: wav });
+      await res.arrayBuffer();
+      for (const m of (res.headers.get('server-timing') ?? '').matchAll(/(\w+);dur=([\d.]+)/g)) (phases[m[1]!] ??= []).push(Number(m[2]));
+    }
+    const median = (x: number[]) => [...x].sort((a, b) => a - b)[Math.floor(x.length / 2)]!;
+    console.log(`one at a time (median)  ${Object.entries(phases).map(([k, v]) => `${k} ${median(v).toFixed(1)} ms`).join(', ')}`);
     // what one analysis costs on its own (same recording, this process, after the load): the ceiling it sets
     const runs = 10;
     analyseRecording(recording, { model, pointId: POINT });

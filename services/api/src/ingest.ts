@@ -56,6 +56,8 @@ export interface AnalysisSummary {
 export interface UploadResult {
   status: 200 | 201;
   body: { recordingId: string; duplicate: boolean; analysis: AnalysisSummary | null };
+  /** Milliseconds spent decoding, analysing (including the wait for a thread) and storing: a Server-Timing header. */
+  timings?: { decodeMs: number; analysisMs: number; storeMs: number };
 }
 
 export function summarise(analysisId: string, a: RecordingAnalysis): AnalysisSummary {
@@ -170,6 +172,7 @@ export async function ingestRecording(
   const retry = await duplicateResult(sql, input, contentHash);
   if (retry) return retry;
 
+  const t0 = performance.now();
   const decoded = decodeBody(input.bytes, input.hint);
   const sampleCount = decoded.channels[0]?.samples.length ?? 0;
   const samples = packSamples(decoded.channels.map((c) => c.samples));
@@ -187,6 +190,7 @@ export async function ingestRecording(
   const recordedAt = recordedAtOf(input, recording);
   const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);
   const model = modelVersion === null ? null : await models.get(sql, input.machine.id, modelVersion);
+  const t1 = performance.now();
   const analysis = await runAnalysis(pool, recording, {
     model,
     pointId: input.point.pointKey,
@@ -194,11 +198,11 @@ export async function ingestRecording(
     ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
   });
   const resultJson = storedAnalysisJson(analysis);
+  const t2 = performance.now();
   const top = analysis.hypotheses[0];
 
   try {
     return await sql.begin(async (tx) => {
-      await lockPoint(tx, input.point.id);
       const recordingId = await insertRecording(tx, {
         siteId: input.key.siteId,
         pointId: input.point.id,
@@ -225,6 +229,8 @@ export async function ingestRecording(
         topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
         resultJson,
       });
+      // only the point's roll-up and alarms need one writer at a time; the large rows above do not
+      await lockPoint(tx, input.point.id);
       await writeTrendValues(tx, {
         pointId: input.point.id,
         recordingId,
@@ -239,7 +245,11 @@ export async function ingestRecording(
         recordedAt,
         indicators: analysis.indicators,
       });
-      return { status: 201 as const, body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis) } };
+      return {
+        status: 201 as const,
+        body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis) },
+        timings: { decodeMs: t1 - t0, analysisMs: t2 - t1, storeMs: performance.now() - t2 },
+      };
     });
   } catch (err) {
     // a concurrent retry won the race to the unique index: answer as the retry it is

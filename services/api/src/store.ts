@@ -292,12 +292,13 @@ export async function findDuplicateRecording(
   return rows[0] ?? null;
 }
 
+/** Samples travel as base64 text (a third smaller than the driver's hex form of bytea), decoded by the server. */
 export async function insertRecording(tx: Queryable, r: NewRecording): Promise<string> {
   const [row] = await tx<{ id: string }[]>`
     insert into recordings (site_id, point_id, recorded_at, sample_rate_hz, sample_count, channels, samples,
       content_hash, idempotency_key, source_format, speed_rpm, metadata, uploaded_by)
     values (${r.siteId}, ${r.pointId}, ${r.recordedAt}, ${r.sampleRateHz}, ${r.sampleCount}, ${json(tx, r.channels)},
-      ${r.samples}, ${r.contentHash}, ${r.idempotencyKey}, ${r.sourceFormat}, ${r.speedRpm}, ${json(tx, r.metadata)},
+      decode(${r.samples.toString('base64')}, 'base64'), ${r.contentHash}, ${r.idempotencyKey}, ${r.sourceFormat}, ${r.speedRpm}, ${json(tx, r.metadata)},
       ${r.uploadedBy})
     returning id`;
   return row!.id;

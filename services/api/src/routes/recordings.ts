@@ -217,6 +217,11 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       defaultUnit: point.unit,
     });
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
+    if (result.timings) {
+      const t = result.timings;
+      // W3C Server Timing: where an upload's time went
+      reply.header('server-timing', `decode;dur=${t.decodeMs.toFixed(1)}, analysis;dur=${t.analysisMs.toFixed(1)}, store;dur=${t.storeMs.toFixed(1)}`);
+    }
     return reply.code(result.status).send(result.body);
   });
 
