@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto';
+import { existsSync } from 'node:fs';
 import postgres from 'postgres';
 import type { FastifyInstance } from 'fastify';
 import { buildApp } from '../../services/api/src/app.js';
@@ -11,7 +12,9 @@ import { createSite, insertApiKey, type Role } from '../../services/api/src/stor
  * Test databases: embedded PGlite (in memory) always; the PostgreSQL server too when TEST_DATABASE_URL
  * is set (.ci/run sets it). On the server each test file gets a database of its own, created from
  * TEST_DATABASE_URL and dropped afterwards, so files running in parallel never share tables.
- * A Docker engine (testcontainers) is used only when TEST_DOCKER=1 and one answers; none does here.
+ * Without TEST_DATABASE_URL, a PostgreSQL container (testcontainers) is started where a Docker engine
+ * answers (a socket at /var/run/docker.sock or DOCKER_HOST); where none does, as here, that target is
+ * left out without trying.
  */
 
 export interface TestTarget {
@@ -20,6 +23,7 @@ export interface TestTarget {
 }
 
 const serverUrl = process.env.TEST_DATABASE_URL;
+const dockerAnswers = !serverUrl && (Boolean(process.env.DOCKER_HOST) || existsSync('/var/run/docker.sock'));
 
 export const targets: TestTarget[] = [
   {
@@ -45,6 +49,23 @@ export const targets: TestTarget[] = [
               await db.close();
               await admin.unsafe(`drop database if exists ${name} with (force)`);
               await admin.end();
+            },
+          };
+        },
+      }]
+    : []),
+  ...(dockerAnswers
+    ? [{
+        name: 'postgresql' as const,
+        async open() {
+          const { PostgreSqlContainer } = await import('@testcontainers/postgresql');
+          const container = await new PostgreSqlContainer('postgres:16-alpine').start();
+          const db = await openDatabase({ databaseUrl: container.getConnectionUri(), dataDir: '', poolMax: 4 });
+          return {
+            ...db,
+            async drop() {
+              await db.close();
+              await container.stop();
             },
           };
         },
