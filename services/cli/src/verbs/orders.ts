@@ -1,17 +1,15 @@
 import { basename } from 'node:path';
+import { gearSynchronousAverages, type GearTsa } from '@kinespec/diagnosis';
 import { MachineModelError, shaftRatios, type MachineModel } from '@kinespec/kinematics';
 import {
-  SignalInputError,
   detectPulses,
   findPeaks,
-  gearIndicators,
   isMotionUnit,
   normalizeUnit,
   orderSpectrum,
   resampleToAngle,
   scaleShaftAngle,
   shaftAngleFromPulses,
-  shaftSynchronousAverage,
   speedFromPulses,
   type AngleInterpolation,
   type Channel,
@@ -32,8 +30,6 @@ const USAGE =
 
 const SCALINGS = ['peak', 'rms', 'psd'] as const;
 const INTERPOLATIONS = ['sinc', 'cubic', 'linear'] as const;
-/** Mesh harmonics wanted in each gear's synchronous average (for FM0 and the regular signal). */
-const TSA_MESH_HARMONICS = 3;
 
 export interface OrdersSettings {
   machinePath: string;
@@ -49,21 +45,8 @@ export interface OrdersSettings {
   tsa: boolean;
 }
 
-export interface GearTsaReport {
-  gear: string;
-  mesh: string;
-  shaft: string;
-  teeth: number;
-  /** Revolutions of the gear averaged and the expected noise amplitude factor 1/sqrt(N). */
-  averages: number;
-  noiseReductionFactor: number;
-  fm0: number | null;
-  fm4: number | null;
-  na4: number | null;
-  rms: number | null;
-  meshHarmonicAmplitudes: number[];
-  note?: string;
-}
+/** One gear's synchronous average and its FM0 / FM4 / NA4 (from @kinespec/diagnosis). */
+export type GearTsaReport = GearTsa;
 
 export interface OrdersReport {
   file: string;
@@ -230,50 +213,12 @@ export function analyseOrders(recording: Recording, model: MachineModel, file: s
     orders: Array.from(spectrum.orders.subarray(0, last)),
     values: Array.from(spectrum.values.subarray(0, last)),
   };
-  if (settings.tsa) report.tsa = gearTsa(vibration, fs, angle, model, ratios, pulseRatio, notes);
-  return report;
-}
-
-/** Synchronous average and FM0 / FM4 / NA4 for every gear of the model, each over its own shaft's revolutions. */
-function gearTsa(
-  vibration: Channel,
-  fs: number,
-  angle: ReturnType<typeof shaftAngleFromPulses>,
-  model: MachineModel,
-  ratios: Map<string, number>,
-  pulseRatio: number,
-  notes: string[],
-): GearTsaReport[] {
-  const out: GearTsaReport[] = [];
-  for (const mesh of model.gearMeshes) {
-    for (const gear of [mesh.driver, mesh.driven]) {
-      const ratio = ratios.get(gear.shaft)! / pulseRatio;
-      const base = { gear: gear.gear, mesh: mesh.id, shaft: gear.shaft, teeth: gear.teeth };
-      let maxSpeedHz = 0;
-      for (let i = angle.firstSample; i <= angle.lastSample; i++) maxSpeedHz = Math.max(maxSpeedHz, angle.speedHz[i]! * ratio);
-      const maxOrder = Math.min((TSA_MESH_HARMONICS + 0.5) * gear.teeth, (0.4 * fs) / maxSpeedHz);
-      try {
-        const tsa = shaftSynchronousAverage(vibration.samples, fs, angle, ratio, { maxOrder });
-        const g = gearIndicators(tsa.average, { teeth: gear.teeth, maxOrder: tsa.angleSignal.maxOrder });
-        out.push({
-          ...base,
-          averages: tsa.averages,
-          noiseReductionFactor: tsa.noiseReductionFactor,
-          fm0: g.fm0,
-          fm4: g.fm4,
-          na4: g.na4,
-          rms: g.rms,
-          meshHarmonicAmplitudes: g.meshHarmonicAmplitudes,
-        });
-      } catch (err) {
-        if (!(err instanceof SignalInputError)) throw err;
-        const note = `gear '${gear.gear}': ${err.message}`;
-        notes.push(note);
-        out.push({ ...base, averages: 0, noiseReductionFactor: 1, fm0: null, fm4: null, na4: null, rms: null, meshHarmonicAmplitudes: [], note: err.message });
-      }
-    }
+  if (settings.tsa) {
+    // every gear over its own shaft's revolutions, through the model ratio from the pulse shaft
+    report.tsa = gearSynchronousAverages(vibration.samples, fs, angle, model, (id) => ratios.get(id)! / pulseRatio);
+    for (const g of report.tsa) if (g.note !== undefined) notes.push(`gear '${g.gear}': ${g.note}`);
   }
-  return out;
+  return report;
 }
 
 /** Indicators a gear's average could not give are null: printed as '-'. */
