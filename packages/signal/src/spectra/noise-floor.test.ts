@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { SignalInputError } from '../errors.js';
-import { runningMedian } from './noise-floor.js';
+import { DEFAULT_NOISE_FLOOR_WIDTH_BINS, runningMedian } from './noise-floor.js';
 
 /** Sorting each window: the slow, obvious median, as the independent check. */
 function naiveRunningMedian(v: number[], width: number): number[] {
@@ -32,6 +32,32 @@ describe('runningMedian', () => {
           want.forEach((w, i) => expect(got[i]).toBe(w));
         },
       ),
+    );
+  });
+
+  it('equals the sorted-window median on values with many ties and signed zeros, windows wider than the record included (property)', () => {
+    // A stable sort keeps equal values (0 and -0 among them) in their original order, so the reference pins
+    // down which zero a window's median is; few distinct values make every window full of ties.
+    const value = fc.constantFrom(-0, 0, 1, -1, 2.5, 1e-300, -1e300);
+    fc.assert(
+      fc.property(fc.array(value, { minLength: 1, maxLength: 300 }), fc.integer({ min: 0, max: 160 }), (values, h) => {
+        const got = runningMedian(Float64Array.from(values), 2 * h + 1);
+        const want = naiveRunningMedian(values, 2 * h + 1);
+        want.forEach((w, i) => expect(Object.is(got[i], w)).toBe(true));
+      }),
+    );
+  });
+
+  it('equals the sorted-window median at the default noise-floor width on spectrum-like records (property)', () => {
+    // Positive amplitudes over several decades with a few lines, as the noise floor of a spectrum sees them.
+    const bin = fc.oneof(fc.double({ min: 1e-6, max: 1e-3, noNaN: true }), fc.double({ min: 0.1, max: 10, noNaN: true }));
+    fc.assert(
+      fc.property(fc.array(bin, { minLength: 60, maxLength: 1500 }), (values) => {
+        const got = runningMedian(Float64Array.from(values), DEFAULT_NOISE_FLOOR_WIDTH_BINS);
+        const want = naiveRunningMedian(values, DEFAULT_NOISE_FLOOR_WIDTH_BINS);
+        want.forEach((w, i) => expect(got[i]).toBe(w));
+      }),
+      { numRuns: 50 },
     );
   });
 

@@ -12,6 +12,8 @@ export const DEFAULT_NOISE_FLOOR_WIDTH_BINS = 63;
  * Centred running median of odd width; near the ends the window shrinks to the bins available.
  * The median ignores narrow peaks that cover less than half the window (J. W. Tukey,
  * Exploratory Data Analysis, Addison-Wesley 1977: running medians as smoothers).
+ * The result equals sorting each window with a stable sort and taking its middle value (the mean of the
+ * two middle values for an even window at the ends), down to the sign of a zero.
  */
 export function runningMedian(values: Float64Array, widthBins: number): Float64Array {
   if (!(Number.isInteger(widthBins) && widthBins >= 1 && widthBins % 2 === 1)) {
@@ -21,38 +23,63 @@ export function runningMedian(values: Float64Array, widthBins: number): Float64A
   const out = new Float64Array(n);
   if (n === 0) return out;
   const h = (widthBins - 1) / 2;
-  // sorted copy of the current window, kept by binary insertion and removal
-  const win: number[] = [];
+  // The current window, sorted, equal values in the order they entered (as a stable sort leaves them): a new
+  // value goes after its equals and the one leaving, the oldest in the window, is the first of its equals.
+  // Sliding replaces the leaving value by the entering one in place and moves it to its rank, which costs
+  // the distance between the two ranks, not a shift of the whole window.
+  const win = new Float64Array(Math.min(widthBins, n));
+  let m = 0;
   let lo = 0;
   let hi = -1;
   for (let i = 0; i < n; i++) {
     const wantLo = Math.max(0, i - h);
     const wantHi = Math.min(n - 1, i + h);
-    while (hi < wantHi) insertSorted(win, values[++hi]);
-    while (lo < wantLo) removeSorted(win, values[lo++]);
-    const m = win.length;
+    if (hi < wantHi && lo < wantLo) {
+      replaceSorted(win, m, values[lo++], values[++hi]);
+    }
+    while (hi < wantHi) {
+      const v = values[++hi];
+      let k = m++;
+      while (k > 0 && win[k - 1] > v) {
+        win[k] = win[k - 1];
+        k--;
+      }
+      win[k] = v;
+    }
+    while (lo < wantLo) {
+      const k = lowerBound(win, m, values[lo++]);
+      win.copyWithin(k, k + 1, m);
+      m--;
+    }
     out[i] = m % 2 === 1 ? win[(m - 1) / 2] : 0.5 * (win[m / 2 - 1] + win[m / 2]);
   }
   return out;
 }
 
-function lowerBound(a: number[], v: number): number {
+/** First index of win[0..m) whose value is not below v. */
+function lowerBound(win: Float64Array, m: number, v: number): number {
   let lo = 0;
-  let hi = a.length;
+  let hi = m;
   while (lo < hi) {
     const mid = (lo + hi) >> 1;
-    if (a[mid] < v) lo = mid + 1;
+    if (win[mid] < v) lo = mid + 1;
     else hi = mid;
   }
   return lo;
 }
 
-function insertSorted(a: number[], v: number): void {
-  a.splice(lowerBound(a, v), 0, v);
-}
-
-function removeSorted(a: number[], v: number): void {
-  a.splice(lowerBound(a, v), 1);
+/** Takes `leaving` (the oldest of its equals) out of the sorted win[0..m) and puts `entering` in, after its equals. */
+function replaceSorted(win: Float64Array, m: number, leaving: number, entering: number): void {
+  let k = lowerBound(win, m, leaving);
+  while (k + 1 < m && win[k + 1] <= entering) {
+    win[k] = win[k + 1];
+    k++;
+  }
+  while (k > 0 && win[k - 1] > entering) {
+    win[k] = win[k - 1];
+    k--;
+  }
+  win[k] = entering;
 }
 
 /** Local noise floor of a spectrum, in the spectrum's own units: running median of its values. */
