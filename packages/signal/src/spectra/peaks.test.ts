@@ -1,8 +1,10 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { SignalInputError } from '../errors.js';
 import { findPeaks, interpolatePeak } from './peaks.js';
+import type { Spectrum } from './spectrum.js';
 import { welchSpectrum } from './welch.js';
-import type { WindowName } from './window.js';
+import { WINDOW_NAMES, windowAmplitudeResponse, type WindowName } from './window.js';
 
 const FS = 25600;
 const SEGMENT = 4096;
@@ -111,5 +113,48 @@ describe('findPeaks dynamic range', () => {
     const peaks = findPeaks(s, { count: 10 });
     expect(peaks).toHaveLength(1);
     expect(findPeaks(s, { count: 10, dynamicRangeDb: 400 }).length).toBeGreaterThan(1);
+  });
+});
+
+describe('interpolatePeak offset', () => {
+  /** The plain bisection the interpolation is defined by: 52 halvings of [0, 0.5] on |W(1 - d)| / |W(d)| = r. */
+  function bisectionOffset(window: WindowName, length: number, r: number): number {
+    const g = (d: number) => windowAmplitudeResponse(window, 1 - d, length) / windowAmplitudeResponse(window, d, length);
+    if (!(r > g(0))) return 0;
+    if (r >= 1) return 0.5;
+    let lo = 0;
+    let hi = 0.5;
+    for (let i = 0; i < 52; i++) {
+      const mid = 0.5 * (lo + hi);
+      if (g(mid) < r) lo = mid;
+      else hi = mid;
+    }
+    return 0.5 * (lo + hi);
+  }
+
+  it('equals the plain bisection bit for bit, for every window, length and neighbour ratio (property)', () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom<WindowName>(...WINDOW_NAMES),
+        fc.constantFrom(8, 64, 600, 4096, 32768),
+        fc.double({ min: 0, max: 1.2, noNaN: true }),
+        fc.boolean(),
+        (window, length, r, rightSide) => {
+          // A peak bin of power 1 with one neighbour at amplitude ratio r and the other below it ('power' scaling:
+          // the values are the bin powers, so the ratio interpolatePeak reads is sqrt(neighbour / peak)).
+          const bins = Math.floor(length / 2) + 1;
+          const values = new Float64Array(bins);
+          const k = Math.floor(bins / 2);
+          values[k] = 1;
+          values[rightSide ? k + 1 : k - 1] = r * r;
+          values[rightSide ? k - 1 : k + 1] = (r * r) / 4;
+          const spectrum = { values, frequenciesHz: new Float64Array(bins), scaling: 'power', segmentLength: length, window, frequencyResolutionHz: 1 } as unknown as Spectrum;
+          const side = values[k + 1]! >= values[k - 1]! ? 1 : -1;
+          const ratio = Math.sqrt(values[k + side]! / values[k]!);
+          expect(interpolatePeak(spectrum, k).binOffset).toBe(side * bisectionOffset(window, length, ratio));
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });

@@ -106,33 +106,59 @@ export function enbwBinsOf(w: Float64Array): number {
  * Dirichlet kernel D(v) = e^{-j pi v (N-1)/N} sin(pi v) / sin(pi v / N) by +-k bins (Harris 1978, cosine-sum windows).
  */
 export function windowAmplitudeResponse(name: WindowName, offsetBins: number, length = 4096): number {
-  const a = WINDOW_COEFFICIENTS[assertWindowName(name)];
-  const [r, i] = kernel(a, offsetBins, length);
-  const [r0, i0] = kernel(a, 0, length);
-  return Math.hypot(r, i) / Math.hypot(r0, i0);
+  const terms = KERNEL_TERMS.get(name) ?? KERNEL_TERMS.get(assertWindowName(name))!;
+  return kernelMagnitude(terms, offsetBins, length) / zeroOffsetMagnitude(name, terms, length);
 }
 
-function dirichlet(v: number, n: number): [number, number] {
+/** Weight of each shifted Dirichlet kernel in a cosine-sum window's kernel: a0, then -a1/2, +a2/2, ... */
+const KERNEL_TERMS = new Map<string, Float64Array>(
+  WINDOW_NAMES.map((name) => [name, Float64Array.from(WINDOW_COEFFICIENTS[name], (ak, k) => (k % 2 === 0 ? 1 : -1) * ak * (k === 0 ? 1 : 0.5))]),
+);
+
+/** |W(0)| per window and length: the same for every call, so computed once (peak interpolation asks for it thousands of times). */
+const zeroOffset = new Map<string, Map<number, number>>();
+
+function zeroOffsetMagnitude(name: string, terms: Float64Array, length: number): number {
+  let byLength = zeroOffset.get(name);
+  if (!byLength) {
+    byLength = new Map();
+    zeroOffset.set(name, byLength);
+  }
+  let m = byLength.get(length);
+  if (m === undefined) {
+    m = kernelMagnitude(terms, 0, length);
+    if (byLength.size < 256) byLength.set(length, m);
+  }
+  return m;
+}
+
+/** |sum_k c_k (D(v - k) + D(v + k))| (the k = 0 term once), without allocating. */
+function kernelMagnitude(terms: Float64Array, v: number, n: number): number {
+  let re = 0;
+  let im = 0;
+  for (let k = 0; k < terms.length; k++) {
+    const c = terms[k];
+    addDirichlet(v - k, n);
+    re += c * dirichletRe;
+    im += c * dirichletIm;
+    if (k > 0) {
+      addDirichlet(v + k, n);
+      re += c * dirichletRe;
+      im += c * dirichletIm;
+    }
+  }
+  return Math.hypot(re, im);
+}
+
+// The last Dirichlet kernel value, handed from addDirichlet to kernelMagnitude without an array.
+let dirichletRe = 0;
+let dirichletIm = 0;
+
+function addDirichlet(v: number, n: number): void {
   const s = Math.sin((Math.PI * v) / n);
   // at v = mN the ratio is 0/0; its limit (l'Hopital) is N cos(pi v) / cos(pi v / N)
   const magnitude = Math.abs(s) < 1e-12 ? (n * Math.cos(Math.PI * v)) / Math.cos((Math.PI * v) / n) : Math.sin(Math.PI * v) / s;
   const phase = (-Math.PI * v * (n - 1)) / n;
-  return [magnitude * Math.cos(phase), magnitude * Math.sin(phase)];
-}
-
-function kernel(a: readonly number[], v: number, n: number): [number, number] {
-  let re = 0;
-  let im = 0;
-  for (let k = 0; k < a.length; k++) {
-    const c = (k % 2 === 0 ? 1 : -1) * a[k] * (k === 0 ? 1 : 0.5);
-    const [r1, i1] = dirichlet(v - k, n);
-    re += c * r1;
-    im += c * i1;
-    if (k > 0) {
-      const [r2, i2] = dirichlet(v + k, n);
-      re += c * r2;
-      im += c * i2;
-    }
-  }
-  return [re, im];
+  dirichletRe = magnitude * Math.cos(phase);
+  dirichletIm = magnitude * Math.sin(phase);
 }
