@@ -3,7 +3,7 @@
 // created and dropped). The data are made server-side with generate_series. Prints p50/p95; asserts nothing.
 //
 //   FLEET_MACHINES (default 1000)  machines, one vibration point each
-//   TREND_MACHINES (default 400)   of those, how many get the full hourly series in trend_values
+//   TREND_MACHINES (default 250)   of those, how many get the full hourly series in trend_values
 //                                  (the daily roll-up is made for every machine either way). The
 //                                  default keeps this file under a minute; TREND_MACHINES=1000 takes
 //                                  about 80 s to generate 8.76 million values on 2 cores.
@@ -17,7 +17,7 @@ import { fleetRanking, trendBuckets, weeklySparklines, type Bucket } from '../se
 
 const baseUrl = process.env.BENCH_DATABASE_URL ?? 'postgres://postgres@127.0.0.1:5432/postgres';
 const MACHINES = Number(process.env.FLEET_MACHINES ?? 1000);
-const WITH_SERIES = Math.min(MACHINES, Number(process.env.TREND_MACHINES ?? 400));
+const WITH_SERIES = Math.min(MACHINES, Number(process.env.TREND_MACHINES ?? 250));
 const HOURS = 365 * 24;
 const END = new Date(Date.UTC(2025, 11, 31, 23, 0, 0));
 const START = new Date(END.getTime() - (HOURS - 1) * 3_600_000);
