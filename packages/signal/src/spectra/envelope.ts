@@ -1,6 +1,7 @@
 import { spectraError } from './spectra-error.js';
 import { assertBand, type BandHz } from './band-rms.js';
-import { inverseComplexSpectrum, realToComplexSpectrum } from './fft.js';
+import { complexFft, inverseComplexSpectrum, realSpectrumInto, realToComplexSpectrum } from './fft.js';
+import { scratchArray } from './scratch.js';
 import type { Spectrum } from './spectrum.js';
 import { assertFiniteSamples, assertSampleRate, welchSpectrum, type WelchOptions } from './welch.js';
 
@@ -14,19 +15,24 @@ export interface AnalyticSignal {
 /**
  * Multiplies a full two-sided DFT by scipy.signal.hilbert's weights (h = 1 at DC and at an even
  * record's Nyquist line, 2 on positive frequencies, 0 on negative ones) and, when a band is given,
- * zeroes every line outside it; returns the inverse DFT, the analytic signal.
+ * zeroes every line outside it (in place).
  */
-function analyticFromSpectrum(X: Float64Array, n: number, keep?: (k: number) => boolean): AnalyticSignal {
+function applyAnalyticWeights(X: Float64Array, n: number, band?: Band): void {
   const half = Math.floor(n / 2);
   for (let k = 0; k < n; k++) {
     let h: number;
     if (k === 0 || (n % 2 === 0 && k === half)) h = 1;
     else if (k < n - k) h = 2;
     else h = 0;
-    if (h !== 0 && keep && !keep(k)) h = 0;
+    if (h !== 0 && band && !inBand(band, n, k)) h = 0;
     X[2 * k] *= h;
     X[2 * k + 1] *= h;
   }
+}
+
+/** The inverse DFT of the weighted spectrum, the analytic signal. */
+function analyticFromSpectrum(X: Float64Array, n: number, band?: Band): AnalyticSignal {
+  applyAnalyticWeights(X, n, band);
   const z = inverseComplexSpectrum(X);
   const re = new Float64Array(n);
   const im = new Float64Array(n);
@@ -48,7 +54,20 @@ export function analyticSignal(samples: Float64Array): AnalyticSignal {
   return analyticFromSpectrum(realToComplexSpectrum(samples), samples.length);
 }
 
-function bandKeeper(n: number, sampleRateHz: number, bandHz: BandHz): (k: number) => boolean {
+/** A checked band and the line spacing of the record it applies to. */
+interface Band {
+  lowHz: number;
+  highHz: number;
+  df: number;
+}
+
+/** Whether DFT line k of an n-point record lies in the band (negative frequencies by their magnitude). */
+function inBand(band: Band, n: number, k: number): boolean {
+  const f = Math.min(k, n - k) * band.df;
+  return f >= band.lowHz && f <= band.highHz;
+}
+
+function checkedBand(n: number, sampleRateHz: number, bandHz: BandHz): Band {
   assertSampleRate(sampleRateHz);
   assertBand(bandHz);
   const nyquist = sampleRateHz / 2;
@@ -61,10 +80,7 @@ function bandKeeper(n: number, sampleRateHz: number, bandHz: BandHz): (k: number
   if (inBand === 0) {
     throw spectraError('empty_band', `bandHz [${bandHz[0]}, ${bandHz[1]}] holds no spectral line of this record (lines every ${df} Hz)`);
   }
-  return (k) => {
-    const f = Math.min(k, n - k) * df;
-    return f >= bandHz[0] && f <= bandHz[1];
-  };
+  return { lowHz: bandHz[0], highHz: bandHz[1], df };
 }
 
 /**
@@ -75,10 +91,10 @@ export function fftBandPass(samples: Float64Array, sampleRateHz: number, bandHz:
   assertFiniteSamples(samples);
   const n = samples.length;
   if (n === 0) return new Float64Array(0);
-  const keep = bandKeeper(n, sampleRateHz, bandHz);
+  const band = checkedBand(n, sampleRateHz, bandHz);
   const X = realToComplexSpectrum(samples);
   for (let k = 0; k < n; k++) {
-    if (!keep(k)) {
+    if (!inBand(band, n, k)) {
       X[2 * k] = 0;
       X[2 * k + 1] = 0;
     }
@@ -99,23 +115,28 @@ export interface EnvelopeOptions {
 
 /**
  * Envelope |x + j H{x}| of the (optionally band-passed) record, or its square. Band-pass and
- * Hilbert transform share one forward and one inverse DFT.
+ * Hilbert transform share one forward and one inverse DFT (their work arrays are reused between calls).
  */
 export function hilbertEnvelope(samples: Float64Array, options: EnvelopeOptions = {}): Float64Array {
   assertFiniteSamples(samples);
   const n = samples.length;
   if (n === 0) return new Float64Array(0);
-  let keep: ((k: number) => boolean) | undefined;
+  let band: Band | undefined;
   if (options.bandHz) {
     if (options.sampleRateHz === undefined) {
       throw spectraError('sample_rate_invalid', 'sampleRateHz is required when bandHz is given');
     }
-    keep = bandKeeper(n, options.sampleRateHz, options.bandHz);
+    band = checkedBand(n, options.sampleRateHz, options.bandHz);
   }
-  const { re, im } = analyticFromSpectrum(realToComplexSpectrum(samples), n, keep);
+  const X = realSpectrumInto(samples, scratchArray('envelope-spectrum', 2 * n));
+  applyAnalyticWeights(X, n, band);
+  const z = scratchArray('envelope-analytic', 2 * n);
+  complexFft(n).inverse(z, X);
   const out = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    const p = re[i] * re[i] + im[i] * im[i];
+    const re = z[2 * i];
+    const im = z[2 * i + 1];
+    const p = re * re + im * im;
     out[i] = options.squared ? p : Math.sqrt(p);
   }
   return out;

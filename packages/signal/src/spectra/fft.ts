@@ -173,8 +173,12 @@ export function realFftPow2(size: number): (out: Float64Array, data: Float64Arra
 
 /** Full two-sided DFT of a real record of any length, interleaved (length 2N). */
 export function realToComplexSpectrum(samples: Float64Array): Float64Array {
+  return realSpectrumInto(samples, new Float64Array(2 * samples.length));
+}
+
+/** realToComplexSpectrum written into `out` (length 2N, any contents; every element is overwritten). */
+export function realSpectrumInto(samples: Float64Array, out: Float64Array): Float64Array {
   const n = samples.length;
-  const out = new Float64Array(2 * n);
   if (n >= 2 && isPowerOfTwo(n)) {
     const plan = complexFft(n) as Radix4Fft;
     plan.fft.realTransform(out, samples);

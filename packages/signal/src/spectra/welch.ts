@@ -1,6 +1,7 @@
 import { spectraError } from './spectra-error.js';
 import { assertDetrendMode, trendOf, type DetrendMode } from './detrend.js';
 import { complexFft, isPowerOfTwo, largestPowerOfTwoAtMost } from './fft.js';
+import { scratchArray } from './scratch.js';
 import {
   assertAveraging,
   assertScaling,
@@ -72,7 +73,7 @@ export function welchSpectrum(samples: Float64Array, sampleRateHz: number, optio
   const segments = Math.floor((total - noverlap) / step);
   const w = sharedWindow(window, n);
   const bins = Math.floor(n / 2) + 1;
-  const acc = new Float64Array(bins);
+  const acc = scratchArray('welch-accumulator', bins).fill(0);
   if (isPowerOfTwo(n) && n >= 4) accumulatePairs(samples, w, n, step, segments, detrend, averaging, acc);
   else accumulateSingles(samples, w, n, step, segments, detrend, averaging, acc);
 
@@ -191,8 +192,10 @@ function accumulatePairs(
   acc: Float64Array,
 ): void {
   const plan = complexFft(n);
-  const data = new Float64Array(2 * n);
-  const out = new Float64Array(2 * n);
+  // Every element of data is written below (both halves of a pair, or the real half and zeros), and the
+  // transform writes all of out.
+  const data = scratchArray('welch-segments', 2 * n);
+  const out = scratchArray('welch-transform', 2 * n);
   const half = n >> 1;
   const hold = averaging === 'peak-hold';
   for (let s = 0; s < segments; s += 2) {
@@ -236,8 +239,9 @@ function accumulateSingles(
   acc: Float64Array,
 ): void {
   const plan = complexFft(n);
-  const data = new Float64Array(2 * n);
-  const out = new Float64Array(2 * n);
+  // fillSegment writes the real parts; the imaginary parts stay zero.
+  const data = scratchArray('welch-segments', 2 * n).fill(0);
+  const out = scratchArray('welch-transform', 2 * n);
   const bins = acc.length;
   const hold = averaging === 'peak-hold';
   for (let s = 0; s < segments; s++) {
