@@ -85,8 +85,8 @@ describe('the HTTP service', () => {
     // pinion-1 turns with the input shaft: 1480 rpm x 180/250 (sheave pitch diameters) x (1 - 1 % slip) = 1054.94 rpm,
     // 17.582 Hz (belt ratio, common practice); a tooth fault's lines are harmonics of that shaft
     expect(sig.lines[0].frequencyHz).toBeCloseTo((1480 * (180 / 250) * 0.99) / 60, 2);
-    expect(sig.excitation.angleRev).toHaveLength(512);
-    expect(sig.excitation.waveform).toHaveLength(512);
+    expect(sig.excitation.angleRev).toHaveLength(1024);
+    expect(sig.excitation.waveform).toHaveLength(1024);
     expect(sig.magnification).toHaveLength(sig.lines.length);
     expect(sig.campbell.orders.length).toBeGreaterThan(0);
     // partial sums converge on the waveform (Fourier series in mean square, common practice)

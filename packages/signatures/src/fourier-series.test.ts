@@ -184,6 +184,33 @@ function totalVariation(segments: Segment[]): number {
   return v;
 }
 
+describe('sampleSegments', () => {
+  it('evaluates each segment kind exactly, sums overlapping layers and wraps the window', () => {
+    // Hand-computed: a mean of 1 over [−0.25, 0.75), a ramp 0 → 2 over [0, 0.5) on top, a cosine layer
+    // 0.5·cos(2π·2θ) over [0.5, 0.75) and e^{−4(θ − 0.5)} over [0.5, 0.75) as well.
+    const segments: Segment[] = [
+      { kind: 'constant', startFraction: -0.25, endFraction: 0.75, value: 1 },
+      { kind: 'linear', startFraction: 0, endFraction: 0.5, startValue: 0, endValue: 2 },
+      { kind: 'cosine', startFraction: 0.5, endFraction: 0.75, amplitude: 0.5, cyclesPerPeriod: 2, phaseRad: 0 },
+      { kind: 'exponential', startFraction: 0.5, endFraction: 0.75, startValue: 1, decayPerPeriod: 4 },
+    ];
+    const y = sampleSegments(segments, 8); // θ = −0.25, −0.125, 0, 0.125, …, 0.625
+    const expected = [
+      1, 1, // the mean alone before the ramp
+      1, 1 + 0.5, 1 + 1, 1 + 1.5, // ramp 4θ on [0, 0.5), end excluded
+      1 + 0.5 * Math.cos(2 * Math.PI * 2 * 0.5) + 1, // θ = 0.5: cos(2π) = 1, e^0 = 1
+      1 + 0.5 * Math.cos(2 * Math.PI * 2 * 0.625) + Math.exp(-4 * 0.125), // cos(2.5π) = 0
+    ];
+    expected.forEach((v, i) => expect(y[i]!, `sample ${i}`).toBeCloseTo(v, 12));
+  });
+
+  it('rejects a count that is not a whole number >= 1', () => {
+    const segments: Segment[] = [{ kind: 'constant', startFraction: 0, endFraction: 1, value: 1 }];
+    expect(() => sampleSegments(segments, 0)).toThrow(/count \(0\)/);
+    expect(() => sampleSegments(segments, 2.5)).toThrow(SignatureInputError);
+  });
+});
+
 describe('sampledFourierSeries', () => {
   it('agrees with the closed form for random continuous piecewise-linear excitations (aliasing bound)', () => {
     // For continuous f with f' of variation V', |c_k| <= V'/(4π²k²) (two integrations by parts), and the DFT

@@ -2,12 +2,14 @@ import type { MachineModel } from '@kinespec/kinematics';
 import {
   campbellData,
   faultCandidates,
-  faultExcitation,
+  fourierSeries,
   partialSumWaveform,
   predictSignature,
   sampleSegments,
   segmentsOrigin,
+  type CampbellData,
   type FaultKind,
+  type Signature,
 } from '@kinespec/signatures';
 
 /*
@@ -17,10 +19,15 @@ import {
  * number comes from the package.
  */
 
-/** Points over one period of the excitation for the waveform plots. */
-export const WAVEFORM_POINTS = 512;
-/** Partial sums offered for the convergence plot (those the series has). */
-const PARTIAL_SUM_HARMONICS = [1, 2, 3, 5, 10, 20, 50, 100];
+/** Points over one period of the excitation for the waveform plots (a power of two, so N = 2^k partial sums peak on a sample). */
+export const WAVEFORM_POINTS = 1024;
+/** Partial sums sent when the request names none, together with the request's `harmonics`. */
+export const DEFAULT_PARTIAL_SUMS = [1, 3, 10, 30] as const;
+/** At most this many partial sums per request, each of at most this many harmonics: keeps the answer near 100 KB. */
+export const MAX_PARTIAL_SUM_COUNT = 8;
+export const MAX_PARTIAL_SUM_HARMONICS = 500;
+/** Waveform values are sent with this many significant digits (plots, and the Gibbs peak to 1e-6 of the jump). */
+const SIGNIFICANT_DIGITS = 6;
 
 export interface SignatureRequest {
   fault: string;
@@ -28,9 +35,54 @@ export interface SignatureRequest {
   speedRpm?: number;
   point?: string;
   harmonics?: number;
+  /** Harmonic counts of the partial sums to send (default DEFAULT_PARTIAL_SUMS and `harmonics`). */
+  partialSums?: number[];
 }
 
-export function signatureView(model: MachineModel, request: SignatureRequest): Record<string, unknown> {
+export interface ExcitationView {
+  template: string;
+  formula: string;
+  reference: string;
+  mean: number;
+  /** The excitation's fundamental as an order of the reference shaft (null for fixed-frequency lines). */
+  fundamentalOrder: number | null;
+  modulationOrder: number | null;
+  /** The shaft whose revolutions `angleRev` counts (the shaft the faulty component turns with). */
+  shaft: string;
+  /** One period of the excitation in revolutions of `shaft` (1 for a tooth fault, 1/BPFO for an outer race); null without a waveform. */
+  periodRev: number | null;
+  /** Sample angles over one period, in revolutions of `shaft`; empty for faults with no waveform (fixed lines). */
+  angleRev: number[];
+  /** The excitation evaluated exactly (piecewise segments) at `angleRev`, in units of `reference`. */
+  waveform: number[];
+  /** Partial sums a0 + Σ_{n≤N} A_n cos(2πnθ + φ_n) of the same waveform's Fourier series at `angleRev`, keyed by N. */
+  partialSums: Record<string, number[]>;
+}
+
+/** The magnification of one predicted line (same order as `lines`, whose `label` names it). */
+export interface MagnificationView {
+  harmonic: number;
+  sideband: number;
+  frequencyHz: number;
+  factor: number;
+  torsional: number | null;
+  structural: number | null;
+}
+
+/** The route's answer: the package's signature with the excitation sampled for plots, the magnifications and the Campbell data. */
+export type SignatureView = Omit<Signature, 'excitation'> & { excitation: ExcitationView; magnification: MagnificationView[]; campbell: CampbellData };
+
+const round = (v: number) => (v === 0 || !Number.isFinite(v) ? v : Number(v.toPrecision(SIGNIFICANT_DIGITS)));
+
+/** The partial-sum counts to send: the requested ones, else the defaults and `harmonics`, ascending. */
+export function partialSumCounts(request: Pick<SignatureRequest, 'harmonics' | 'partialSums'>): number[] {
+  const wanted = request.partialSums && request.partialSums.length > 0
+    ? request.partialSums
+    : [...DEFAULT_PARTIAL_SUMS, ...(request.harmonics !== undefined ? [request.harmonics] : [])];
+  return [...new Set(wanted)].sort((a, b) => a - b);
+}
+
+export function signatureView(model: MachineModel, request: SignatureRequest): SignatureView {
   const signature = predictSignature(model, {
     fault: request.fault as FaultKind,
     component: request.component,
@@ -39,44 +91,40 @@ export function signatureView(model: MachineModel, request: SignatureRequest): R
     ...(request.harmonics !== undefined ? { harmonics: request.harmonics } : {}),
   });
   const { segments, ...excitationInfo } = signature.excitation;
+  // the fundamental as an order of the fault's own shaft: the reference-shaft order over that shaft's speed ratio
+  const shaftRatio = signature.shaftSpeedHz / (signature.speedRpm / 60);
+  const baseOrder = excitationInfo.fundamentalOrder === null ? null : excitationInfo.fundamentalOrder / shaftRatio;
+  let periodRev: number | null = null;
   let angleRev: number[] = [];
   let waveform: number[] = [];
-  if (segments && segments.length > 0) {
-    const origin = segmentsOrigin(segments);
-    waveform = Array.from(sampleSegments(segments, WAVEFORM_POINTS));
-    angleRev = waveform.map((_, i) => origin + i / WAVEFORM_POINTS);
-  }
   const partialSums: Record<string, number[]> = {};
-  // the Fourier series of the same periodic waveform, for the partial sums
-  const series = faultExcitation(model, {
-    fault: request.fault as FaultKind,
-    component: request.component,
-    ...(request.speedRpm !== undefined ? { speedRpm: request.speedRpm } : {}),
-    ...(request.harmonics !== undefined ? { harmonics: request.harmonics } : {}),
-  }).series;
-  if (series && series.terms.length > 0) {
-    const start = angleRev[0] ?? 0;
-    const counts = new Set([...PARTIAL_SUM_HARMONICS.filter((n) => n <= series.terms.length), series.terms.length]);
-    for (const n of [...counts].sort((a, b) => a - b)) {
-      const w = partialSumWaveform(series, { harmonics: n, points: WAVEFORM_POINTS, startFraction: start });
-      partialSums[String(n)] = Array.from(w.value);
-      if (angleRev.length === 0) angleRev = Array.from(w.angleFraction);
+  if (segments && segments.length > 0 && baseOrder !== null && baseOrder > 0) {
+    periodRev = 1 / baseOrder;
+    const origin = segmentsOrigin(segments);
+    waveform = Array.from(sampleSegments(segments, WAVEFORM_POINTS), round);
+    angleRev = waveform.map((_, i) => round((origin + i / WAVEFORM_POINTS) * periodRev!));
+    // The series of the very segments drawn, so each partial sum converges on the waveform shown (a template
+    // may scale its lines' series, e.g. looseness to its strongest line; the waveform keeps the segments' units).
+    const counts = partialSumCounts(request);
+    const series = fourierSeries(segments, Math.max(...counts));
+    for (const n of counts) {
+      const w = partialSumWaveform(series, { harmonics: n, points: WAVEFORM_POINTS, startFraction: origin });
+      partialSums[String(n)] = Array.from(w.value, round);
     }
   }
-  const magnification = signature.lines.map((l) => ({
+  const magnification: MagnificationView[] = signature.lines.map((l) => ({
     harmonic: l.harmonic,
     sideband: l.sideband,
     frequencyHz: l.frequencyHz,
     factor: l.magnification,
-    torsional: l.torsionalMagnification,
-    structural: l.structuralMagnification,
-    label: l.label,
+    torsional: l.torsionalMagnification ?? null,
+    structural: l.structuralMagnification ?? null,
   }));
   const orders = [...new Map(signature.lines.filter((l) => l.order > 0).map((l) => [l.order, { order: l.order, label: l.label }])).values()].slice(0, 12);
   const campbell = campbellData(model, orders.length > 0 ? { orders } : {});
   return {
     ...signature,
-    excitation: { ...excitationInfo, angleRev, waveform, partialSums },
+    excitation: { ...excitationInfo, shaft: signature.shaft, periodRev, angleRev, waveform, partialSums },
     magnification,
     campbell,
   };
