@@ -71,12 +71,13 @@ export function cepstralPeak(cepstrum: Cepstrum, periodS: number, toleranceFract
   const wHi = Math.min(last, Math.ceil((1.5 * periodS) / dq));
   // The background statistics need a few hundred values, not every one of a long window.
   const stride = Math.max(1, Math.floor((wHi - wLo + 1) / 400));
-  const around: number[] = [];
-  for (let i = wLo; i <= wHi; i += stride) if (i < lo || i > hi) around.push(values[i]!);
-  if (around.length < 8) return { quefrencyS: quefrenciesS[at]!, value: values[at]!, prominence: 0 };
-  around.sort((a, b) => a - b);
+  const picked: number[] = [];
+  for (let i = wLo; i <= wHi; i += stride) if (i < lo || i > hi) picked.push(values[i]!);
+  if (picked.length < 8) return { quefrencyS: quefrenciesS[at]!, value: values[at]!, prominence: 0 };
+  // Typed-array sorts: numeric order without a comparator call per comparison.
+  const around = Float64Array.from(picked).sort();
   const median = around[Math.floor(around.length / 2)]!;
-  const deviations = around.map((v) => Math.abs(v - median)).sort((a, b) => a - b);
+  const deviations = around.map((v) => Math.abs(v - median)).sort();
   const sigma = 1.4826 * deviations[Math.floor(deviations.length / 2)]!;
   const prominence = sigma > 0 ? (values[at]! - median) / sigma : 0;
   return { quefrencyS: quefrenciesS[at]!, value: values[at]!, prominence };

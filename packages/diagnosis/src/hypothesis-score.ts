@@ -109,7 +109,15 @@ function matchCandidate(candidate: Candidate, inputs: ScoringInputs): Matched {
     const others = foreign.filter((l) => !isTwin(candidate, l));
     const ambiguousWith = [...running, ...others.map((l) => l.label), ...twins.map((l) => `${l.label} (identical component)`)];
     return {
-      ...m,
+      label: m.label,
+      predictedHz: m.predictedHz,
+      predictedAmplitude: m.predictedAmplitude,
+      toleranceHz: m.toleranceHz,
+      measuredHz: m.measuredHz,
+      measuredAmplitude: m.measuredAmplitude,
+      snrDb: m.snrDb,
+      matched: m.matched,
+      upperBoundAmplitude: m.upperBoundAmplitude,
       ambiguous: ambiguousWith.length > 0,
       ambiguousWith,
       running: running.length > 0,

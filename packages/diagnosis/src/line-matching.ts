@@ -94,12 +94,15 @@ export function matchLine(measured: MatchableSpectrum, line: ExpectedLine, toler
     const k = maxima[i]!;
     if (k <= last && (best < 0 || v[k]! > v[best]!) && !leakageAt(measured, k)) best = k;
   }
-  const base = { label: line.label, predictedHz: line.frequencyHz, predictedAmplitude: line.amplitude, toleranceHz };
   const peak = best >= 0 && snrDb[best]! >= minSnrDb ? peakAt(measured, best) : null;
   // The peak bin may lie within the tolerance while the tone it holds (interpolated) lies beyond it.
+  // (Plain object literals of one shape: spreading a common part costs more than the matching itself.)
   if (peak && Math.abs(peak.frequencyHz - line.frequencyHz) <= toleranceHz + 0.1 * df) {
     return {
-      ...base,
+      label: line.label,
+      predictedHz: line.frequencyHz,
+      predictedAmplitude: line.amplitude,
+      toleranceHz,
       measuredHz: peak.frequencyHz,
       measuredAmplitude: peak.amplitude,
       snrDb: snrDb[best]!,
@@ -109,7 +112,10 @@ export function matchLine(measured: MatchableSpectrum, line: ExpectedLine, toler
   }
   const at = best >= 0 ? best : nearest;
   return {
-    ...base,
+    label: line.label,
+    predictedHz: line.frequencyHz,
+    predictedAmplitude: line.amplitude,
+    toleranceHz,
     measuredHz: null,
     measuredAmplitude: null,
     snrDb: nearest < v.length ? snrDb[at]! : 0,
@@ -145,7 +151,8 @@ export function strongPeaks(measured: MatchableSpectrum, minSnrDb: number, count
   return out;
 }
 
-function peakAt(measured: MatchableSpectrum, k: number): PeakInterpolation {
+/** interpolatePeak at bin k of the measured spectrum, computed once per spectrum and bin. */
+export function peakAt(measured: MatchableSpectrum, k: number): PeakInterpolation {
   let p = measured.memo.peaks.get(k);
   if (!p) {
     p = interpolatePeak(measured.spectrum, k);

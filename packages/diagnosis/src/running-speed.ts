@@ -1,7 +1,6 @@
 import { componentLines, type MachineModel } from '@kinespec/kinematics';
-import { interpolatePeak } from '@kinespec/signal';
 import { DiagnosisInputError } from './errors.js';
-import type { MatchableSpectrum } from './line-matching.js';
+import { peakAt, type MatchableSpectrum } from './line-matching.js';
 
 /** A line whose frequency is a fixed order of the reference shaft, used to find the speed. */
 interface SpeedLine {
@@ -124,7 +123,7 @@ export function speedFromSpectrum(measured: MatchableSpectrum, model: MachineMod
       if (v[j]! > v[j - 1]! && v[j]! >= v[j + 1]! && (k < 0 || Math.abs(j - x) < Math.abs(k - x))) k = j;
     }
     if (k < 0 || snrDb[k]! < minSnrDb) continue;
-    support.push({ label: l.label, order: l.order, frequencyHz: interpolatePeak(spectrum, k).frequencyHz, snrDb: snrDb[k]! });
+    support.push({ label: l.label, order: l.order, frequencyHz: peakAt(measured, k).frequencyHz, snrDb: snrDb[k]! });
   }
   if (support.length === 0) return null;
   let so2 = 0;
