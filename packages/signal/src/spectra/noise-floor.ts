@@ -25,8 +25,8 @@ export function runningMedian(values: Float64Array, widthBins: number): Float64A
   const h = (widthBins - 1) / 2;
   // The current window, sorted, equal values in the order they entered (as a stable sort leaves them): a new
   // value goes after its equals and the one leaving, the oldest in the window, is the first of its equals.
-  // Sliding replaces the leaving value by the entering one in place and moves it to its rank, which costs
-  // the distance between the two ranks, not a shift of the whole window.
+  // Sliding replaces the leaving value by the entering one in place and shifts only the values between
+  // their two ranks.
   const win = new Float64Array(Math.min(widthBins, n));
   let m = 0;
   let lo = 0;
@@ -70,16 +70,36 @@ function lowerBound(win: Float64Array, m: number, v: number): number {
 
 /** Takes `leaving` (the oldest of its equals) out of the sorted win[0..m) and puts `entering` in, after its equals. */
 function replaceSorted(win: Float64Array, m: number, leaving: number, entering: number): void {
-  let k = lowerBound(win, m, leaving);
-  while (k + 1 < m && win[k + 1] <= entering) {
-    win[k] = win[k + 1];
-    k++;
-  }
-  while (k > 0 && win[k - 1] > entering) {
-    win[k] = win[k - 1];
-    k--;
-  }
-  win[k] = entering;
+  const k = lowerBound(win, m, leaving);
+  // Rank of the entering value among the others: after every value not above it. A long move (a smooth,
+  // monotone stretch of a spectrum sends each new value across the whole window) is one block copy.
+  let p: number;
+  if (k + 1 < m && win[k + 1] <= entering) {
+    // Moves up: the first value above it, from k + 1 on.
+    let lo = k + 1;
+    let hi = m;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (win[mid] <= entering) lo = mid + 1;
+      else hi = mid;
+    }
+    p = lo - 1;
+    if (p - k > 12) win.copyWithin(k, k + 1, p + 1);
+    else for (let j = k; j < p; j++) win[j] = win[j + 1];
+  } else if (k > 0 && win[k - 1] > entering) {
+    // Moves down: the first value above it, before k.
+    let lo = 0;
+    let hi = k;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (win[mid] <= entering) lo = mid + 1;
+      else hi = mid;
+    }
+    p = lo;
+    if (k - p > 12) win.copyWithin(p + 1, p, k);
+    else for (let j = k; j > p; j--) win[j] = win[j - 1];
+  } else p = k;
+  win[p] = entering;
 }
 
 /** Local noise floor of a spectrum, in the spectrum's own units: running median of its values. */
