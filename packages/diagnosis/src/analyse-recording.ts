@@ -15,6 +15,7 @@ import {
   isMotionUnit,
   noiseFloor,
   quantityOfUnit,
+  scratchArray,
   welchSpectrum,
   withScaling,
   type PulseSpeed,
@@ -200,10 +201,11 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
       }))
       : candidates;
     lap('candidates');
-    const cepstrum = powerCepstrumOf(main.spectrum);
-    // Gear faults of one gear ask for the same shaft period: each period's peak is looked up once.
+    // The cepstrum only supports gear faults: computed when the first one asks (scoring), once. Gear faults
+    // of one gear ask for the same shaft period: each period's peak is looked up once.
+    let cepstrum: Cepstrum | null = null;
+    const cepstrumOf = () => (cepstrum ??= powerCepstrumOf(main.spectrum));
     const cepstralPeaks = new Map<number, ReturnType<typeof cepstralPeak>>();
-    lap('cepstrum');
     const scored = scoreCandidates(scoringCandidates, {
       spectra: { spectrum: main, envelope: envelopeMeasured },
       speedUncertaintyHz: angle ? 0 : uncertaintyHz,
@@ -218,7 +220,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
           model, speedHz: lineSpeed, measured: main, uncertaintyHz: angle ? 0 : uncertaintyHz, unitHz,
           referenceSpeedHz: speedHz, baselineOrders: point.baseline?.orders ?? null, pointUnit: point.unit ?? null,
         }),
-      support: (c) => supportOf(c, model, lineSpeed, cepstrum, cepstralPeaks),
+      support: (c) => supportOf(c, model, lineSpeed, cepstrumOf, cepstralPeaks),
     });
     lap('scoring');
     hypotheses = scored
@@ -572,7 +574,7 @@ function runningLines(model: MachineModel, speedHz: number): CatalogueLine[] {
 }
 
 function powerCepstrumOf(spectrum: Spectrum): Cepstrum {
-  const power = new Float64Array(spectrum.values.length);
+  const power = scratchArray('diagnosis:cepstrum-power', spectrum.values.length);
   for (let k = 0; k < power.length; k++) power[k] = binPower(spectrum, k);
   return powerCepstrum(power, spectrum.frequencyResolutionHz);
 }
@@ -763,7 +765,7 @@ function velocityRmsOfLine(amplitude: number, frequencyHz: number, unit: string)
 }
 
 /** Cepstral support of a gear fault: a rahmonic at the period of the gear's shaft (common practice). */
-function supportOf(candidate: Candidate, model: MachineModel, speedHz: number, cepstrum: Cepstrum, memo: Map<number, ReturnType<typeof cepstralPeak>>): number {
+function supportOf(candidate: Candidate, model: MachineModel, speedHz: number, cepstrum: () => Cepstrum, memo: Map<number, ReturnType<typeof cepstralPeak>>): number {
   if (!candidate.fault.startsWith('gear-') || candidate.fault === 'gear-wear') return 1;
   const gear = model.gearMeshes.flatMap((m) => [m.driver, m.driven]).find((g) => g.gear === candidate.component);
   if (!gear) return 1;
@@ -771,7 +773,7 @@ function supportOf(candidate: Candidate, model: MachineModel, speedHz: number, c
   const periodS = 1 / (ratio * speedHz);
   let peak = memo.get(periodS);
   if (peak === undefined) {
-    peak = cepstralPeak(cepstrum, periodS, 0.02);
+    peak = cepstralPeak(cepstrum(), periodS, 0.02);
     memo.set(periodS, peak);
   }
   const prominence = peak?.prominence ?? 0;
@@ -781,7 +783,10 @@ function supportOf(candidate: Candidate, model: MachineModel, speedHz: number, c
 
 function roundParts(p: Hypothesis['parts']): Hypothesis['parts'] {
   const r = (x: number) => Math.round(x * 1000) / 1000;
-  return { detection: r(p.detection), shape: r(p.shape), level: r(p.level), exclusivity: r(p.exclusivity), support: r(p.support) };
+  return {
+    detection: r(p.detection), shape: r(p.shape), level: r(p.level), exclusivity: r(p.exclusivity), support: r(p.support),
+    explainedAway: r(p.explainedAway), ...(p.explainedBy !== undefined ? { explainedBy: p.explainedBy } : {}),
+  };
 }
 
 /** Strong peaks that neither the catalogue of component lines nor any hypothesis accounts for. */

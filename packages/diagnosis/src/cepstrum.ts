@@ -1,3 +1,4 @@
+import { scratchArray } from '@kinespec/signal';
 import { DiagnosisInputError } from './errors.js';
 import { fftPlan } from './fft-plan.js';
 
@@ -28,13 +29,13 @@ export function powerCepstrum(powerSpectrum: ArrayLike<number>, frequencyResolut
   for (let k = 0; k < bins; k++) if (powerSpectrum[k]! > max) max = powerSpectrum[k]!;
   // Empty bins (a zero-padded or band-limited spectrum) would give log 0; floor them 120 dB under the largest line.
   const floor = max > 0 ? max * 1e-12 : 1e-300;
-  const full = new Float64Array(2 * nfft);
+  const full = scratchArray('diagnosis:cepstrum-log-spectrum', 2 * nfft).fill(0);
   for (let k = 0; k < bins; k++) {
     const v = Math.log(Math.max(powerSpectrum[k]!, floor));
     full[2 * k] = v;
     if (k > 0 && k < bins - 1) full[2 * (nfft - k)] = v;
   }
-  const out = new Float64Array(2 * nfft);
+  const out = scratchArray('diagnosis:cepstrum-transform', 2 * nfft);
   fftPlan(nfft).inverseTransform(out, full);
   const values = new Float64Array(bins);
   const quefrenciesS = new Float64Array(bins);

@@ -1,3 +1,4 @@
+import { scratchArray } from '@kinespec/signal';
 import { DiagnosisInputError } from './errors.js';
 import { fftPlan, nextPowerOfTwo, previousPowerOfTwo } from './fft-plan.js';
 
@@ -62,12 +63,12 @@ export function fastKurtogram(samples: ArrayLike<number>, sampleRateHz: number, 
   // transient, which a kurtosis reads as an impact. A short cosine taper (Tukey, 5 % at each end) removes the jump,
   // and the envelope moments below skip the tapered ends so that the taper does not bias them either.
   const taper = Math.max(1, Math.floor(n * EDGE_FRACTION));
-  const frame = new Float64Array(n);
+  const frame = scratchArray('diagnosis:kurtogram-frame', n);
   for (let i = 0; i < n; i++) {
     const w = i < taper ? 0.5 - 0.5 * Math.cos((Math.PI * i) / taper) : i >= n - taper ? 0.5 - 0.5 * Math.cos((Math.PI * (n - 1 - i)) / taper) : 1;
     frame[i] = (samples[i]! - mean) * w;
   }
-  const spectrum = new Float64Array(2 * n);
+  const spectrum = scratchArray('diagnosis:kurtogram-spectrum', 2 * n);
   fftPlan(n).realTransform(spectrum, frame);
   const half = n / 2;
   const binHz = sampleRateHz / n;
@@ -119,9 +120,11 @@ function bandEnvelopeKurtosis(spectrum: Float64Array, i1: number, i2: number): n
   if (width < 1) return Number.NaN;
   // Zero-padding the band to a power of two only interpolates the envelope in time; its moments are unchanged.
   const m = Math.max(16, nextPowerOfTwo(width));
-  const band = new Float64Array(2 * m);
+  // Work arrays reused from band to band (a kurtogram transforms some 400 bands); the band's bins, then zeros.
+  const band = scratchArray('diagnosis:kurtogram-band', 2 * m);
   band.set(spectrum.subarray(2 * i1, 2 * i2), 0);
-  const envelope = new Float64Array(2 * m);
+  band.fill(0, 2 * width);
+  const envelope = scratchArray('diagnosis:kurtogram-envelope', 2 * m);
   fftPlan(m).inverseTransform(envelope, band);
   // Skip the tapered ends (same fraction of the record: the envelope is the record at a lower rate).
   const from = Math.ceil(m * EDGE_FRACTION);

@@ -48,3 +48,4 @@ export {
 } from './envelope.js';
 export { complexFft, realToComplexSpectrum, inverseComplexSpectrum, largestPowerOfTwoAtMost, isPowerOfTwo, type ComplexFft } from './fft.js';
 export { spectraErrorDescriptions, type SpectraErrorCode } from './spectra-error.js';
+export { scratchArray, SCRATCH_LIMIT } from './scratch.js';
