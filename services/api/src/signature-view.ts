@@ -3,12 +3,13 @@ import {
   campbellData,
   faultCandidates,
   fourierSeries,
+  evaluateSegments,
   partialSumWaveform,
   predictSignature,
-  sampleSegments,
   segmentsOrigin,
   type CampbellData,
   type FaultKind,
+  type Segment,
   type Signature,
 } from '@kinespec/signatures';
 
@@ -51,7 +52,7 @@ export interface ExcitationView {
   shaft: string;
   /** One period of the excitation in revolutions of `shaft` (1 for a tooth fault, 1/BPFO for an outer race); null without a waveform. */
   periodRev: number | null;
-  /** Sample angles over one period, in revolutions of `shaft`; empty for faults with no waveform (fixed lines). */
+  /** Sample angles over one period, in revolutions of `shaft`, the shortest feature (dip, impact) mid-period; empty for faults with no waveform (fixed lines). */
   angleRev: number[];
   /** The excitation evaluated exactly (piecewise segments) at `angleRev`, in units of `reference`. */
   waveform: number[];
@@ -73,6 +74,18 @@ export interface MagnificationView {
 export type SignatureView = Omit<Signature, 'excitation'> & { excitation: ExcitationView; magnification: MagnificationView[]; campbell: CampbellData };
 
 const round = (v: number) => (v === 0 || !Number.isFinite(v) ? v : Number(v.toPrecision(SIGNIFICANT_DIGITS)));
+
+/**
+ * Where the plotted period starts: half a period before the middle of the shortest segment (the tooth dip,
+ * the impact), so that feature sits mid-plot rather than split at the edge. Snapped to the sample grid that
+ * starts at the segments' origin, where a jump usually is, so such a jump falls on a sample.
+ */
+function windowStart(segments: readonly Segment[]): number {
+  const origin = segmentsOrigin(segments);
+  const shortest = segments.reduce((a, b) => (b.endFraction - b.startFraction < a.endFraction - a.startFraction ? b : a));
+  const wanted = (shortest.startFraction + shortest.endFraction) / 2 - 0.5;
+  return origin + Math.round((wanted - origin) * WAVEFORM_POINTS) / WAVEFORM_POINTS;
+}
 
 /** The partial-sum counts to send: the requested ones, else the defaults and `harmonics`, ascending. */
 export function partialSumCounts(request: Pick<SignatureRequest, 'harmonics' | 'partialSums'>): number[] {
@@ -100,15 +113,15 @@ export function signatureView(model: MachineModel, request: SignatureRequest): S
   const partialSums: Record<string, number[]> = {};
   if (segments && segments.length > 0 && baseOrder !== null && baseOrder > 0) {
     periodRev = 1 / baseOrder;
-    const origin = segmentsOrigin(segments);
-    waveform = Array.from(sampleSegments(segments, WAVEFORM_POINTS), round);
-    angleRev = waveform.map((_, i) => round((origin + i / WAVEFORM_POINTS) * periodRev!));
     // The series of the very segments drawn, so each partial sum converges on the waveform shown (a template
     // may scale its lines' series, e.g. looseness to its strongest line; the waveform keeps the segments' units).
     const counts = partialSumCounts(request);
     const series = fourierSeries(segments, Math.max(...counts));
+    const start = windowStart(segments);
+    waveform = Array.from({ length: WAVEFORM_POINTS }, (_, i) => round(evaluateSegments(segments, start + i / WAVEFORM_POINTS)));
+    angleRev = waveform.map((_, i) => round((start + i / WAVEFORM_POINTS) * periodRev!));
     for (const n of counts) {
-      const w = partialSumWaveform(series, { harmonics: n, points: WAVEFORM_POINTS, startFraction: origin });
+      const w = partialSumWaveform(series, { harmonics: n, points: WAVEFORM_POINTS, startFraction: start });
       partialSums[String(n)] = Array.from(w.value, round);
     }
   }
