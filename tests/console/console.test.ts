@@ -198,10 +198,11 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     await page.locator('#sig-harmonics').fill('5');
     await page.getByRole('button', { name: 'Show' }).click();
     const query = new URLSearchParams({ machine, fault: fault!, component: component!, speedRpm, harmonics: '5' });
-    const sig = await service.get<{ lines: unknown[]; excitation?: { partialSums?: Record<string, number[]> }; campbell?: unknown }>(`/api/v1/signatures?${query}`);
+    const sig = await service.get<{ lines: unknown[]; excitation?: { waveform?: number[]; partialSums?: Record<string, number[]> }; campbell?: unknown }>(`/api/v1/signatures?${query}`);
     await expect.poll(() => page.locator('#signature-output').getAttribute('data-harmonics')).toBe('5');
     expect(Number(await page.locator('figure[data-chart="signature-lines"]').getAttribute('data-predicted-count'))).toBe(sig.lines.length);
-    if (sig.excitation?.partialSums) {
+    // faults with fixed lines (unbalance) have no waveform and so no excitation chart
+    if (sig.excitation?.waveform?.length && sig.excitation.partialSums) {
       expect((await page.locator('figure[data-chart="excitation"]').getAttribute('data-partial-sums'))!.split(',')).toEqual(Object.keys(sig.excitation.partialSums).sort((a, b) => Number(a) - Number(b)));
     } else {
       expect(await page.locator('figure[data-chart="excitation"]').count()).toBe(0);
@@ -210,6 +211,56 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     expect(await unlabelledControls(page)).toEqual([]);
     await page.waitForTimeout(200);
     await page.screenshot({ path: join(shots, 'signatures.png'), fullPage: true });
+  });
+
+  it('plots the excitation of a tooth fault with its partial sums, each with its own dash, and re-requests for a new number of harmonics', async () => {
+    // a machine of the demo with a tooth-fault candidate (a gearbox), chosen through the page's own selects
+    const machines = await service.get<MachineRow[]>('/api/v1/machines');
+    let choice: { machine: string; value: string } | null = null;
+    for (const m of machines) {
+      const faults = await service.get<Array<{ fault: string; component: string }>>(`/api/v1/faults?machine=${encodeURIComponent(m.id)}`);
+      const tooth = faults.find((f) => f.fault === 'gear-missing-tooth');
+      if (tooth) {
+        choice = { machine: m.id, value: `${tooth.fault}|${tooth.component}` };
+        break;
+      }
+    }
+    expect(choice, 'the demo site has a gearbox').not.toBeNull();
+    await page.locator('#sig-machine').selectOption(choice!.machine);
+    await page.locator(`#sig-fault option[value="${choice!.value}"]`).waitFor({ state: 'attached' });
+    await page.locator('#sig-fault').selectOption(choice!.value);
+    await page.locator('#sig-harmonics').fill('12');
+    await page.getByRole('button', { name: 'Show' }).click();
+    const excitation = page.locator('figure[data-chart="excitation"]');
+    await expect.poll(() => excitation.getAttribute('data-harmonics')).toBe('12');
+    const [fault, component] = choice!.value.split('|');
+    const query = new URLSearchParams({ machine: choice!.machine, fault: fault!, component: component!, speedRpm: await page.locator('#sig-speed').inputValue(), harmonics: '12' });
+    const sig = await service.get<{ excitation: { angleRev: number[]; waveform: number[]; partialSums: Record<string, number[]> } }>(`/api/v1/signatures?${query}`);
+    // the exact waveform over one period, then one series per partial sum the service sent (12 among them)
+    expect(sig.excitation.waveform.length).toBeGreaterThan(0);
+    expect(Number(await excitation.getAttribute('data-waveform-points'))).toBe(sig.excitation.waveform.length);
+    expect(Number(await excitation.getAttribute('data-series-points'))).toBe(sig.excitation.angleRev.length);
+    const sums = (await excitation.getAttribute('data-partial-sums'))!.split(',');
+    expect(sums.length).toBeGreaterThanOrEqual(2);
+    expect(sums).toContain('12');
+    expect(sums).toEqual(Object.keys(sig.excitation.partialSums).sort((a, b) => Number(a) - Number(b)));
+    expect(Number(await excitation.getAttribute('data-series'))).toBe(1 + sums.length);
+    // colour is not the only carrier: every partial sum has a dash pattern of its own, none solid like the waveform
+    const dashes = JSON.parse((await excitation.getAttribute('data-partial-sum-dashes'))!) as number[][];
+    expect(dashes).toHaveLength(sums.length);
+    expect(dashes.every((d) => d.length > 0)).toBe(true);
+    expect(new Set(dashes.map((d) => d.join(','))).size).toBe(dashes.length);
+    expect(await inkedPixels(page, 'figure[data-chart="excitation"]')).toBeGreaterThan(200);
+    expect(Number(await page.locator('figure[data-chart="magnification"]').getAttribute('data-harmonics'))).toBeGreaterThan(0);
+    // a new number of harmonics re-requests on change, without pressing Show
+    await page.locator('#sig-harmonics').fill('7');
+    await page.locator('#sig-harmonics').press('Tab');
+    await expect.poll(() => excitation.getAttribute('data-harmonics')).toBe('7');
+    expect((await excitation.getAttribute('data-partial-sums'))!.split(',')).toContain('7');
+    expect(await page.locator('figure[data-chart="excitation"]').count()).toBe(1);
+    expect(await unlabelledControls(page)).toEqual([]);
+    await page.waitForTimeout(200);
+    await page.screenshot({ path: join(shots, 'signatures-excitation.png'), fullPage: true });
   });
 
   it('uploads a recording through the page and shows its analysis', async () => {

@@ -230,11 +230,18 @@ export interface SignatureResponse {
     formula?: string;
     reference?: string;
     fundamentalOrder?: number | null;
+    /** the shaft whose revolutions angleRev counts */
+    shaft?: string;
+    /** one period of the excitation in revolutions of that shaft */
+    periodRev?: number | null;
     angleRev?: number[];
+    /** the excitation evaluated exactly at angleRev */
     waveform?: number[];
+    /** partial sums of its Fourier series at angleRev, keyed by the number of harmonics */
     partialSums?: Record<string, number[]>;
   };
-  magnification?: Array<{ harmonic: number; frequencyHz: number; factor: number }>;
+  /** one entry per line, in the order of `lines` */
+  magnification?: Array<{ harmonic: number; sideband?: number; frequencyHz: number; factor: number; torsional?: number | null; structural?: number | null }>;
   campbell?: unknown;
   [key: string]: unknown;
 }

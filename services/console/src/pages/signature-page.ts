@@ -6,7 +6,7 @@ import { campbellView } from '../campbell-data.js';
 import { createXyChart, type XyChart } from '../charts/xy-chart.js';
 import { clear, h, message } from '../dom.js';
 import { faultName, formatFixed, formatNumber } from '../format.js';
-import { ink, okabeIto, seriesColours } from '../palette.js';
+import { ink, okabeIto } from '../palette.js';
 import { classifyLabel } from '../predicted-lines.js';
 import { routeHref, type Route } from '../route.js';
 
@@ -24,6 +24,10 @@ function modelSpeed(machine: MachineDetail | null): ModelSpeed {
   const speed = (machine?.model as { speed?: ModelSpeed } | null | undefined)?.speed;
   return speed && typeof speed === 'object' ? speed : {};
 }
+
+/** Partial sums: Okabe–Ito hues (ink is the exact waveform's) and a dash pattern each, so they read without colour. */
+const partialSumColours = [okabeIto.vermillion, okabeIto.blue, okabeIto.bluishGreen, okabeIto.reddishPurple, okabeIto.orange, okabeIto.skyBlue];
+const partialSumDashes = [[2, 2], [6, 3], [10, 3, 2, 3], [1, 3], [14, 4], [4, 2, 1, 2], [8, 2], [3, 3, 1, 3]];
 
 function lineLabel(line: SignatureLine, i: number): string {
   return typeof line.label === 'string' && line.label ? line.label : typeof line.harmonic === 'number' ? `${line.harmonic}×` : `line ${i + 1}`;
@@ -86,7 +90,10 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
     for (const c of charts.splice(0)) c.destroy();
   };
 
+  // A newer request (Show, or a change of the harmonics) supersedes one still in flight.
+  let requestSeq = 0;
   const show = async () => {
+    const seq = ++requestSeq;
     destroyCharts();
     clear(output);
     const [fault, component] = faultSelect.value.split('|');
@@ -102,11 +109,14 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
     try {
       sig = await ctx.api.get<SignatureResponse>('/api/v1/signatures', { machine: machineSelect.value, fault, component, speedRpm, harmonics, point: pointSelect.value || undefined });
     } catch (err) {
+      if (seq !== requestSeq) return;
       clear(output);
       output.append(message('error', err instanceof ApiProblem ? err.message : String(err)));
       if (err instanceof ApiProblem) for (const e of err.errors) output.append(message('error', `${e.path}: ${e.message}`));
       return;
     }
+    if (seq !== requestSeq) return;
+    destroyCharts();
     clear(output);
     output.dataset.fault = fault;
     output.dataset.component = component;
@@ -145,14 +155,14 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
           h(
             'table',
             { class: 'data compact' },
-            h('thead', {}, h('tr', {}, ...['Line', 'Family', 'Frequency (Hz)', 'Order', 'Amplitude'].map((t) => h('th', { scope: 'col' }, t)))),
+            h('thead', {}, h('tr', {}, ...['Line', 'Family', 'Frequency (Hz)', 'Order', 'Amplitude', 'Magnification'].map((t) => h('th', { scope: 'col' }, t)))),
             h(
               'tbody',
               {},
               ...lines.map((l, i) => {
                 const label = lineLabel(l, i);
                 const family = typeof l.sideband === 'number' ? (l.sideband === 0 ? 'harmonic' : `sideband ${l.sideband > 0 ? '+' : ''}${l.sideband}`) : typeof l.family === 'string' ? l.family : classifyLabel(label).family;
-                return h('tr', {}, h('td', {}, label), h('td', {}, family), h('td', { class: 'num' }, formatNumber(l.frequencyHz, 5)), h('td', { class: 'num' }, formatNumber(typeof l.order === 'number' ? l.order : (l.frequencyHz * 60) / speedRpm, 4)), h('td', { class: 'num' }, formatNumber(amplitude(l))));
+                return h('tr', {}, h('td', {}, label), h('td', {}, family), h('td', { class: 'num' }, formatNumber(l.frequencyHz, 5)), h('td', { class: 'num' }, formatNumber(typeof l.order === 'number' ? l.order : (l.frequencyHz * 60) / speedRpm, 4)), h('td', { class: 'num' }, formatNumber(amplitude(l))), h('td', { class: 'num' }, typeof l.magnification === 'number' ? formatFixed(l.magnification, 3) : '–'));
               }),
             ),
           ),
@@ -169,19 +179,31 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
     if (exc?.formula) excitationPanel.append(h('p', { class: 'formula' }, `${exc.template ? `${exc.template}: ` : ''}${exc.formula}`));
     if (exc && exc.angleRev?.length && exc.waveform?.length) {
       const sums = Object.entries(exc.partialSums ?? {}).sort((a, b) => Number(a[0]) - Number(b[0]));
+      // each partial sum has its own dash pattern as well as its own colour; the exact waveform is solid ink
+      const sumStyles = sums.map((_, i) => ({ colour: partialSumColours[i % partialSumColours.length]!, dash: partialSumDashes[i % partialSumDashes.length]! }));
+      const shaftName = exc.shaft ? ` of ${exc.shaft}` : '';
+      const period = typeof exc.periodRev === 'number' && Math.abs(exc.periodRev - 1) > 1e-9 ? ` (one period = ${formatNumber(exc.periodRev, 4)} rev)` : '';
+      excitationPanel.append(
+        h('p', { class: 'help' }, `Solid: the excitation itself, evaluated exactly. Dashed: the sum of its first N harmonics for N = ${sums.map(([n]) => n).join(', ')}; near a jump each overshoots by about 9 % of the jump however many harmonics it has (Gibbs). Change “Harmonics” above to add another N.`),
+      );
       charts.push(
         createXyChart(excitationPanel, {
           kind: 'excitation',
-          title: `Waveform and partial sums up to ${sums.map(([n]) => n).join(', ') || harmonics} harmonics`,
-          xLabel: 'Angle (rev)',
-          yLabel: 'excitation',
+          title: `Waveform and partial sums of ${sums.map(([n]) => n).join(', ') || harmonics} harmonics${period}`,
+          xLabel: `Angle (rev${shaftName})`,
+          yLabel: exc.reference ? `× ${exc.reference}` : 'excitation',
           x: exc.angleRev,
           series: [
-            { label: 'excitation', y: exc.waveform, colour: ink, width: 2, dash: [] },
-            ...sums.map(([n, values], i) => ({ label: `sum of ${n} harmonics`, y: values, colour: seriesColours[i % (seriesColours.length - 1)]!, width: 1.3 })),
+            { label: 'excitation (exact)', y: exc.waveform, colour: ink, width: 2, dash: [] },
+            ...sums.map(([n, values], i) => ({ label: `sum of ${n} harmonic${n === '1' ? '' : 's'}`, y: values, colour: sumStyles[i]!.colour, dash: sumStyles[i]!.dash, width: 1.4 })),
           ],
-          height: 240,
-          attributes: { 'data-partial-sums': sums.map(([n]) => n).join(',') },
+          height: 260,
+          attributes: {
+            'data-partial-sums': sums.map(([n]) => n).join(','),
+            'data-waveform-points': exc.waveform.filter((v) => Number.isFinite(v)).length,
+            'data-partial-sum-dashes': JSON.stringify(sumStyles.map((st) => st.dash)),
+            'data-harmonics': harmonics,
+          },
         }),
       );
     } else excitationPanel.append(message('empty', 'The service sent no sampled waveform or partial sums for this fault (fixed-line faults such as unbalance have none).'));
@@ -190,12 +212,16 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
     const magPanel = h('section', { class: 'panel', 'aria-labelledby': 'sig-mag-title' }, h('h2', { id: 'sig-mag-title' }, 'Magnification at each harmonic'));
     grid.append(magPanel);
     // The endpoint's own table, else each excitation line's |H| (sidebands left out: they share their carrier's path)
+    type Magnification = NonNullable<SignatureResponse['magnification']>[number];
     const mag = [
       ...(sig.magnification ??
         lines
-          .filter((l) => typeof l.magnification === 'number' && (l.sideband ?? 0) === 0)
-          .map((l) => ({ harmonic: typeof l.harmonic === 'number' ? l.harmonic : Math.round((l.frequencyHz * 60) / speedRpm), frequencyHz: l.frequencyHz, factor: l.magnification as number }))),
-    ].sort((a, b) => a.frequencyHz - b.frequencyHz);
+          .filter((l) => typeof l.magnification === 'number')
+          .map((l): Magnification => ({ harmonic: typeof l.harmonic === 'number' ? l.harmonic : Math.round((l.frequencyHz * 60) / speedRpm), sideband: l.sideband ?? 0, frequencyHz: l.frequencyHz, factor: l.magnification as number }))),
+    ]
+      // one bar per harmonic: sidebands share their carrier's path
+      .filter((m, _i, all) => (m.sideband ?? 0) === 0 || !all.some((x) => (x.sideband ?? 0) === 0))
+      .sort((a, b) => a.frequencyHz - b.frequencyHz);
     if (mag.length) {
       charts.push(
         createXyChart(magPanel, {
@@ -208,7 +234,7 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
           stems: true,
           logY: mag.some((m) => m.factor > 0),
           height: 240,
-          attributes: { 'data-harmonics': mag.length },
+          attributes: { 'data-harmonics': mag.length, 'data-max-factor': Math.max(...mag.map((m) => m.factor)) },
           annotate: (u) => {
             // the static line (factor 1) for reference
             const y = u.valToPos(1, 'y', true);
@@ -334,6 +360,10 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
     drawCampbell();
   };
 
+  // a new number of harmonics re-requests at once (the partial sums and lines depend on it)
+  harmonicsInput.addEventListener('change', () => {
+    if (harmonicsInput.checkValidity() && faultSelect.value) void show();
+  });
   form.addEventListener('submit', (e) => {
     e.preventDefault();
     void show();
