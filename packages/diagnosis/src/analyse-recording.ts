@@ -783,7 +783,10 @@ function supportOf(candidate: Candidate, model: MachineModel, speedHz: number, c
 
 function roundParts(p: Hypothesis['parts']): Hypothesis['parts'] {
   const r = (x: number) => Math.round(x * 1000) / 1000;
-  return { detection: r(p.detection), shape: r(p.shape), level: r(p.level), exclusivity: r(p.exclusivity), support: r(p.support) };
+  return {
+    detection: r(p.detection), shape: r(p.shape), level: r(p.level), exclusivity: r(p.exclusivity), support: r(p.support),
+    explainedAway: r(p.explainedAway), ...(p.explainedBy !== undefined ? { explainedBy: p.explainedBy } : {}),
+  };
 }
 
 /** Strong peaks that neither the catalogue of component lines nor any hypothesis accounts for. */

@@ -31,6 +31,10 @@ export interface ScoreParts {
   level: number;
   exclusivity: number;
   support: number;
+  /** 1, or the share of a broader shown hypothesis' matched lines that this one's lines amount to (see explainAway). */
+  explainedAway: number;
+  /** The broader hypothesis (`fault:component`) that explains every line this one matched, when there is one. */
+  explainedBy?: string;
 }
 
 export interface ScoredCandidate {
@@ -75,16 +79,55 @@ export function scoreCandidates(candidates: readonly Candidate[], inputs: Scorin
     list.push(i);
     byContext.set(m.candidate.context, list);
   });
-  return matched.map((m) => {
+  const scored = matched.map((m) => {
     const rivals = (byContext.get(m.candidate.context) ?? []).map((i) => matched[i]!).filter((r) => r !== m && r.candidate.domain === m.candidate.domain);
     const exclusivity = exclusivityOf(m, rivals);
     const level = clamp01(inputs.level(m.candidate, m.matches));
     // With an identical twin elsewhere, the component under the sensor is the likelier (its impacts arrive strongest).
     const twinned = m.matches.some((x) => x.matched && x.twin);
     const support = clamp01(inputs.support(m.candidate)) * (twinned && !m.candidate.atPoint ? TWIN_AWAY_FACTOR : 1);
-    const parts = { detection: m.detection, shape: m.shape, level, exclusivity, support };
+    const parts: ScoreParts = { detection: m.detection, shape: m.shape, level, exclusivity, support, explainedAway: 1 };
     const score = clamp01(parts.detection * (0.5 + 0.5 * parts.shape) * parts.level * parts.exclusivity * parts.support);
     return { candidate: m.candidate, matches: m.matches, parts, score };
+  });
+  return explainAway(scored);
+}
+
+/** A broader hypothesis explains a narrower one away when it matched at least this many times as many lines. */
+const EXPLAIN_AWAY_MIN_RATIO = 2;
+
+/**
+ * Explaining away (Occam's razor between hypotheses): when a shown hypothesis (score >= 0.5) in the same domain, on
+ * another kind of component (a gear against a shaft, say),
+ * predicts every line a narrower one matched, and matched at least twice as many lines itself, the narrower one
+ * adds no explanation of its own. Its score is multiplied by (its matched lines / the broader one's), so that, say,
+ * the 1×-2×-3× of a shaft carrying a broken tooth (whose comb of shaft harmonics and mesh sidebands holds those
+ * three lines and dozens more) is not reported as misalignment. The price: a real second fault whose lines all lie
+ * inside a stronger fault's pattern is under-scored while the stronger one is present; `parts.explainedBy` says so.
+ */
+function explainAway(scored: ScoredCandidate[]): ScoredCandidate[] {
+  const matchedOf = (s: ScoredCandidate) => s.matches.filter((x) => x.matched && x.measuredHz !== null && x.measuredHz !== undefined);
+  return scored.map((s) => {
+    const mine = matchedOf(s);
+    if (s.score === 0 || mine.length === 0) return s;
+    let factor = 1;
+    let by: string | undefined;
+    for (const r of scored) {
+      // Between faults of one kind of component (unbalance, misalignment, looseness of a shaft) exclusivity decides.
+      if (r === s || r.score < 0.5 || r.candidate.domain !== s.candidate.domain || r.candidate.kind === s.candidate.kind) continue;
+      const theirs = matchedOf(r);
+      if (theirs.length < EXPLAIN_AWAY_MIN_RATIO * mine.length) continue;
+      const covered = mine.every((x) =>
+        r.matches.some((p) => Math.abs((p.measuredHz ?? p.predictedHz) - x.measuredHz!) <= Math.max(p.toleranceHz, x.toleranceHz)),
+      );
+      const f = mine.length / theirs.length;
+      if (covered && f < factor) {
+        factor = f;
+        by = `${r.candidate.fault}:${r.candidate.component}`;
+      }
+    }
+    if (by === undefined) return s;
+    return { ...s, parts: { ...s.parts, explainedAway: factor, explainedBy: by }, score: clamp01(s.score * factor) };
   });
 }
 

@@ -35,7 +35,10 @@ export function reasonFor(h: Hypothesis, matches: ReadonlyArray<LineMatch & { am
     .join(', ');
   const p = h.parts;
   let caveat = '';
-  if (p.exclusivity < 0.5) caveat = ', but stronger lines that it does not explain point to another fault of the same part';
+  if (p.explainedBy !== undefined && p.explainedAway < 0.5) {
+    const [fault, component] = p.explainedBy.split(':');
+    caveat = `, but every one of them belongs to the broader pattern of ${faultNames[fault!] ?? fault} in ${component}, which explains them better`;
+  } else if (p.exclusivity < 0.5) caveat = ', but stronger lines that it does not explain point to another fault of the same part';
   else if (p.level < 0.5) caveat = h.fault === 'unbalance' || h.fault === 'misalignment' || h.fault === 'looseness' || h.fault === 'electrical'
     ? ', but at a level a healthy machine also shows'
     : ', but no higher than on the baseline';

@@ -36,7 +36,7 @@ export interface Hypothesis {
   domain: HypothesisDomain;
   evidence: Evidence[];
   /** The parts of the score, for engineers who want to see how it was made. */
-  parts: { detection: number; shape: number; level: number; exclusivity: number; support: number };
+  parts: { detection: number; shape: number; level: number; exclusivity: number; support: number; explainedAway: number; explainedBy?: string };
 }
 
 export interface PlotSpectrum {
