@@ -1,6 +1,6 @@
 import { shaftRatios, type MachineModel, type Point } from '@kinespec/kinematics';
 import { convertUnit, quantityOfUnit } from '@kinespec/signal';
-import { faultCandidates, predictSignature, type FaultCandidate, type Signature } from '@kinespec/signatures';
+import { faultCandidates, predictSignature, type FaultCandidate, type Signature, type SignatureLine } from '@kinespec/signatures';
 import type { Candidate } from './hypothesis-score.js';
 import type { ExpectedLine } from './line-matching.js';
 
@@ -62,12 +62,16 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
     // Lines at fixed frequencies (twice line frequency) do not move with a speed error, nor with the speed step.
     const fixed = signature.excitation.fundamentalOrder === null;
     const stretch = fixed ? 1 : p.speedRatio;
-    const lines: ExpectedLine[] = signature.lines
-      .map((l) => ({ ...l, frequencyHz: l.frequencyHz * stretch }))
-      .filter((l) => l.frequencyHz >= lowHz && l.frequencyHz <= topHz && l.amplitude > 0)
-      .sort((a, b) => b.amplitude - a.amplitude)
+    // The lines the spectrum can show, strongest first (a stable sort: equal amplitudes keep the signature's order).
+    const kept: Array<{ line: SignatureLine; frequencyHz: number }> = [];
+    for (const line of signature.lines) {
+      const frequencyHz = line.frequencyHz * stretch;
+      if (frequencyHz >= lowHz && frequencyHz <= topHz && line.amplitude > 0) kept.push({ line, frequencyHz });
+    }
+    kept.sort((a, b) => b.line.amplitude - a.line.amplitude);
+    const lines: ExpectedLine[] = kept
       .slice(0, limits.maxLines)
-      .map((l) => ({ frequencyHz: l.frequencyHz, amplitude: l.amplitude * scale, label: l.label, order: fixed ? 0 : l.frequencyHz / speedHz, relativeSpreadFraction: spread }));
+      .map(({ line: l, frequencyHz }) => ({ frequencyHz, amplitude: l.amplitude * scale, label: l.label, order: fixed ? 0 : frequencyHz / speedHz, relativeSpreadFraction: spread }));
     let context: string;
     const own = new Set<string>([c.component]);
     switch (c.componentKind) {
