@@ -18,8 +18,9 @@ export function downsampleForPlot(spectrum: PlotSeries, maxPoints: number): Plot
   const n = v.length;
   if (n <= maxPoints) return { frequenciesHz: f.slice(), values: v.slice() };
   const buckets = Math.floor(maxPoints / 2);
-  const outF: number[] = [];
-  const outV: number[] = [];
+  const outF = new Float64Array(2 * buckets);
+  const outV = new Float64Array(2 * buckets);
+  let m = 0;
   for (let b = 0; b < buckets; b++) {
     const start = Math.floor((b * n) / buckets);
     const end = Math.floor(((b + 1) * n) / buckets);
@@ -31,12 +32,12 @@ export function downsampleForPlot(spectrum: PlotSeries, maxPoints: number): Plot
     }
     const first = Math.min(iMin, iMax);
     const second = Math.max(iMin, iMax);
-    outF.push(f[first]);
-    outV.push(v[first]);
+    outF[m] = f[first];
+    outV[m++] = v[first];
     if (second !== first) {
-      outF.push(f[second]);
-      outV.push(v[second]);
+      outF[m] = f[second];
+      outV[m++] = v[second];
     }
   }
-  return { frequenciesHz: Float64Array.from(outF), values: Float64Array.from(outV) };
+  return { frequenciesHz: outF.slice(0, m), values: outV.slice(0, m) };
 }
