@@ -55,23 +55,22 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
       continue;
     }
     const { candidate: c, signature } = p;
-    const domain = signature.domain === 'envelope' ? 'envelope' : 'spectrum';
+    const domain = signature.domain;
     const [lowHz, topHz] = domain === 'envelope' ? [limits.envelopeLowHz, limits.envelopeTopHz] : [limits.spectrumLowHz, limits.spectrumTopHz];
     const scale = unitScale(signature.unit, unit);
     const spread = c.fault.startsWith('bearing-') ? BEARING_SLIP_FRACTION : 0;
     // Lines at fixed frequencies (twice line frequency) do not move with a speed error, nor with the speed step.
-    const fixed = signature.excitation.fundamentalOrder === null;
+    const fixed = signature.fixedFrequency;
     const stretch = fixed ? 1 : p.speedRatio;
-    // The lines the spectrum can show, strongest first (a stable sort: equal amplitudes keep the signature's order).
-    const kept: Array<{ line: SignatureLine; frequencyHz: number }> = [];
-    for (const line of signature.lines) {
-      const frequencyHz = line.frequencyHz * stretch;
-      if (frequencyHz >= lowHz && frequencyHz <= topHz && line.amplitude > 0) kept.push({ line, frequencyHz });
+    // The lines the spectrum can show, strongest first (the cached lines are sorted so already).
+    const lines: ExpectedLine[] = [];
+    for (const l of signature.lines) {
+      if (lines.length >= limits.maxLines) break;
+      const frequencyHz = l.frequencyHz * stretch;
+      if (frequencyHz >= lowHz && frequencyHz <= topHz) {
+        lines.push({ frequencyHz, amplitude: l.amplitude * scale, label: l.label, order: fixed ? 0 : frequencyHz / speedHz, relativeSpreadFraction: spread });
+      }
     }
-    kept.sort((a, b) => b.line.amplitude - a.line.amplitude);
-    const lines: ExpectedLine[] = kept
-      .slice(0, limits.maxLines)
-      .map(({ line: l, frequencyHz }) => ({ frequencyHz, amplitude: l.amplitude * scale, label: l.label, order: fixed ? 0 : frequencyHz / speedHz, relativeSpreadFraction: spread }));
     let context: string;
     const own = new Set<string>([c.component]);
     switch (c.componentKind) {
@@ -105,8 +104,33 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
 }
 
 type Prediction =
-  | { candidate: FaultCandidate; signature: Signature; speedRatio: number }
+  | { candidate: FaultCandidate; signature: PredictedLines; speedRatio: number }
   | { fault: string; component: string; error: string };
+
+/**
+ * What the analysis reads of a predicted signature, and all the cache keeps of it (a whole Signature, with its
+ * excitation and every line's derivation, takes some 30 kB): the lines of positive amplitude, strongest first
+ * (a stable sort, so equal amplitudes keep the signature's order).
+ */
+interface PredictedLines {
+  domain: 'spectrum' | 'envelope';
+  unit: string;
+  /** The excitation has no fundamental order: its lines sit at fixed frequencies (twice line frequency). */
+  fixedFrequency: boolean;
+  lines: Array<Pick<SignatureLine, 'frequencyHz' | 'amplitude' | 'label'>>;
+}
+
+function predictedLines(signature: Signature): PredictedLines {
+  return {
+    domain: signature.domain === 'envelope' ? 'envelope' : 'spectrum',
+    unit: signature.unit,
+    fixedFrequency: signature.excitation.fundamentalOrder === null,
+    lines: signature.lines
+      .filter((l) => l.amplitude > 0)
+      .sort((a, b) => b.amplitude - a.amplitude)
+      .map((l) => ({ frequencyHz: l.frequencyHz, amplitude: l.amplitude, label: l.label })),
+  };
+}
 
 /**
  * Predicted signatures are made at speeds on a 1 % grid and kept (at most CACHE_SIZE model-point-speed entries):
@@ -116,7 +140,8 @@ type Prediction =
  * depends only on the inputs, never on what was cached before.
  */
 const SPEED_STEP = 0.01;
-const CACHE_SIZE = 64;
+/** About 0.3 MB each (36 candidates of a gearbox): some 55 MB for a worker that sees many machines. */
+const CACHE_SIZE = 192;
 const cache = new Map<string, Prediction[]>();
 const modelKeys = new WeakMap<MachineModel, string>();
 
@@ -143,7 +168,7 @@ function predictions(model: MachineModel, point: Point, speedHz: number): Predic
           point: point.id,
           ...(candidate.fault === 'gear-missing-tooth' || candidate.fault === 'gear-broken-tooth' ? { depthFraction: TOOTH_DROP_DEPTH[candidate.fault], rippleFraction: MESH_RIPPLE_FRACTION } : {}),
         });
-        return { candidate, signature, speedRatio: 1 };
+        return { candidate, signature: predictedLines(signature), speedRatio: 1 };
       } catch (err) {
         return { fault: candidate.fault, component: candidate.component, error: err instanceof Error ? err.message : String(err) };
       }
