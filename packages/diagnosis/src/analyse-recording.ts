@@ -10,7 +10,8 @@ import {
   binPower,
   convertUnit,
   downsampleForPlot,
-  envelopeSpectrum,
+  hilbertEnvelope,
+  spectrumOfEnvelope,
   integrateSpectrum,
   isMotionUnit,
   noiseFloor,
@@ -143,7 +144,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   lap('overall velocity');
 
   // Envelope spectrum, when the machine has rolling bearings (or no model says otherwise).
-  let envelope: { band: EnvelopeBand; spectrum: Spectrum; measured: MatchableSpectrum } | null = null;
+  let envelope: ReturnType<typeof envelopeAnalysis> = null;
   if (!model || model.bearings.length > 0) {
     envelope = envelopeAnalysis(samples, fs, unit, model, point, speedHz, warnings, lap);
   }
@@ -154,7 +155,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   if (wantAngle && model && speed?.pulses) {
     const ratios = shaftRatios(model).map((r) => r.ratio);
     try {
-      angle = angleSpectra(samples, fs, unit, speed.pulses, { envelopeBandHz: envelope?.band.bandHz ?? null, slowestOrder: Math.min(1, ...ratios) }, lap);
+      angle = angleSpectra(samples, fs, unit, speed.pulses, { envelopeBandHz: envelope?.band.bandHz ?? null, squaredEnvelope: envelope?.squaredEnvelope, slowestOrder: Math.min(1, ...ratios) }, lap);
       if (!angle) warnings.push('the record holds fewer than 4 revolutions: analysed in the frequency domain');
     } catch (err) {
       warnings.push(`order tracking failed (${err instanceof Error ? err.message : String(err)}): analysed in the frequency domain`);
@@ -501,7 +502,7 @@ function envelopeAnalysis(
   speedHz: number | null,
   warnings: string[],
   lap: (stage: string) => void = () => {},
-): { band: EnvelopeBand; spectrum: Spectrum; measured: MatchableSpectrum } | null {
+): { band: EnvelopeBand; spectrum: Spectrum; measured: MatchableSpectrum; squaredEnvelope: Float64Array } | null {
   // The band must hold the fault lines and their sidebands: 3.5 × the highest first-order defect frequency.
   let highestDefectHz = 0;
   let slowestBearingShaftHz = Infinity;
@@ -526,11 +527,13 @@ function envelopeAnalysis(
   let largest = 1;
   while (largest * 2 <= samples.length) largest *= 2;
   segment = Math.min(segment, largest >= 16384 ? largest / 2 : largest);
-  const spectrum = envelopeSpectrum(samples, fs, { bandHz: band.bandHz, squared: true, segmentLength: segment, scaling: 'peak', unit, window: 'hann' });
+  // The squared envelope is kept: the angle domain order-tracks the same one.
+  const squaredEnvelope = hilbertEnvelope(samples, { bandHz: band.bandHz, sampleRateHz: fs, squared: true });
+  const spectrum = spectrumOfEnvelope(squaredEnvelope, fs, { bandHz: band.bandHz, squared: true, segmentLength: segment, scaling: 'peak', unit, window: 'hann' });
   lap('envelope spectrum');
   const measured = matchableSpectrum(spectrum, noiseFloor(spectrum));
   lap('envelope noise floor');
-  return { band, spectrum, measured };
+  return { band, spectrum, measured, squaredEnvelope };
 }
 
 const onlyBearingFamilies = {

@@ -33,7 +33,12 @@ export function angleSpectra(
   sampleRateHz: number,
   unit: string,
   pulses: PulseSpeed,
-  options: { envelopeBandHz: [number, number] | null; slowestOrder: number },
+  options: {
+    envelopeBandHz: [number, number] | null;
+    /** hilbertEnvelope(samples, { bandHz: envelopeBandHz, sampleRateHz, squared: true }) when the caller has it already. */
+    squaredEnvelope?: Float64Array;
+    slowestOrder: number;
+  },
   lap: (stage: string) => void = () => {},
 ): AngleSpectra | null {
   const angle = shaftAngleFromPulses(pulses, samples.length, sampleRateHz);
@@ -47,7 +52,7 @@ export function angleSpectra(
   lap('angle: noise floor');
   let envelope: AngleSpectra['envelope'] = null;
   if (options.envelopeBandHz) {
-    const squared = hilbertEnvelope(samples, { bandHz: options.envelopeBandHz, sampleRateHz, squared: true });
+    const squared = options.squaredEnvelope ?? hilbertEnvelope(samples, { bandHz: options.envelopeBandHz, sampleRateHz, squared: true });
     lap('angle: envelope');
     // The envelope holds nothing above the band's width: a coarser angle grid is enough.
     const width = options.envelopeBandHz[1] - options.envelopeBandHz[0];

@@ -163,8 +163,19 @@ export function envelopeSpectrum(samples: Float64Array, sampleRateHz: number, op
   if (!options || !options.bandHz) {
     throw spectraError('invalid_band', 'bandHz is required for an envelope spectrum');
   }
+  const env = hilbertEnvelope(samples, { bandHz: options.bandHz, sampleRateHz, squared: options.squared ?? false });
+  return spectrumOfEnvelope(env, sampleRateHz, options);
+}
+
+/**
+ * The second half of envelopeSpectrum, for a caller that needs the envelope itself as well: the Welch spectrum of
+ * `envelope`, which must be hilbertEnvelope(samples, { bandHz, sampleRateHz, squared }) with the same options.
+ */
+export function spectrumOfEnvelope(envelope: Float64Array, sampleRateHz: number, options: EnvelopeSpectrumOptions): EnvelopeSpectrum {
+  if (!options || !options.bandHz) {
+    throw spectraError('invalid_band', 'bandHz is required for an envelope spectrum');
+  }
   const { bandHz, squared = false, ...welch } = options;
-  const env = hilbertEnvelope(samples, { bandHz, sampleRateHz, squared });
-  const spectrum = welchSpectrum(env, sampleRateHz, { scaling: 'peak', ...welch });
+  const spectrum = welchSpectrum(envelope, sampleRateHz, { scaling: 'peak', ...welch });
   return { ...spectrum, envelopeBandHz: [bandHz[0], bandHz[1]], squaredEnvelope: squared };
 }

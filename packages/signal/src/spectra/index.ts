@@ -41,6 +41,7 @@ export {
   fftBandPass,
   hilbertEnvelope,
   envelopeSpectrum,
+  spectrumOfEnvelope,
   type AnalyticSignal,
   type EnvelopeOptions,
   type EnvelopeSpectrumOptions,
