@@ -26,9 +26,18 @@ export function downsampleForPlot(spectrum: PlotSeries, maxPoints: number): Plot
     const end = Math.floor(((b + 1) * n) / buckets);
     let iMin = start;
     let iMax = start;
+    let lowest = v[start];
+    let highest = lowest;
     for (let i = start + 1; i < end; i++) {
-      if (v[i] < v[iMin]) iMin = i;
-      if (v[i] > v[iMax]) iMax = i;
+      const x = v[i];
+      if (x < lowest) {
+        lowest = x;
+        iMin = i;
+      }
+      if (x > highest) {
+        highest = x;
+        iMax = i;
+      }
     }
     const first = Math.min(iMin, iMax);
     const second = Math.max(iMin, iMax);
