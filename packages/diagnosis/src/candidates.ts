@@ -3,6 +3,7 @@ import { convertUnit, quantityOfUnit } from '@kinespec/signal';
 import { faultCandidates, predictSignature, type FaultCandidate, type Signature, type SignatureLine } from '@kinespec/signatures';
 import type { Candidate } from './hypothesis-score.js';
 import type { ExpectedLine } from './line-matching.js';
+import { modelKey } from './model-key.js';
 
 export interface CandidateLimits {
   /** Highest and lowest frequency each spectrum can show a line at. */
@@ -143,17 +144,11 @@ const SPEED_STEP = 0.01;
 /** About 0.3 MB each (36 candidates of a gearbox): some 55 MB for a worker that sees many machines. */
 const CACHE_SIZE = 192;
 const cache = new Map<string, Prediction[]>();
-const modelKeys = new WeakMap<MachineModel, string>();
 
 function predictions(model: MachineModel, point: Point, speedHz: number): Prediction[] {
   const step = Math.round(Math.log(speedHz) / Math.log1p(SPEED_STEP));
   const gridHz = Math.exp(step * Math.log1p(SPEED_STEP));
-  let modelKey = modelKeys.get(model);
-  if (modelKey === undefined) {
-    modelKey = JSON.stringify(model);
-    modelKeys.set(model, modelKey);
-  }
-  const key = `${point.id}|${step}|${modelKey}`;
+  const key = `${point.id}|${step}|${modelKey(model)}`;
   let list = cache.get(key);
   if (list) {
     // Refresh its place: the map keeps insertion order, the oldest entry is evicted first.

@@ -1,4 +1,5 @@
 import { componentLines, type MachineModel } from '@kinespec/kinematics';
+import { modelKey } from './model-key.js';
 import { DiagnosisInputError } from './errors.js';
 import { peakAt, type MatchableSpectrum } from './line-matching.js';
 
@@ -32,8 +33,23 @@ const PREFERRED_FRACTION = 0.04;
 /** How much better a speed outside that window must fit to be taken instead. */
 const FAR_SPEED_MARGIN = 1.5;
 
+/** Speed lines per model (they depend on nothing else); at most SPEED_LINES_KEPT models. */
+const speedLinesOf = new Map<string, readonly SpeedLine[]>();
+const SPEED_LINES_KEPT = 256;
+
 /** Orders of the lines every machine of this model shows when running: 1×–3× of each shaft, mesh and blade pass. */
-function speedLines(model: MachineModel): SpeedLine[] {
+function speedLines(model: MachineModel): readonly SpeedLine[] {
+  const key = modelKey(model);
+  let lines = speedLinesOf.get(key);
+  if (!lines) {
+    lines = computeSpeedLines(model);
+    if (speedLinesOf.size >= SPEED_LINES_KEPT) speedLinesOf.delete(speedLinesOf.keys().next().value!);
+    speedLinesOf.set(key, lines);
+  }
+  return lines;
+}
+
+function computeSpeedLines(model: MachineModel): SpeedLine[] {
   const catalogue = componentLines(model, 1, {
     maxHarmonic: {
       'shaft-harmonic': 3, 'gear-mesh': 3, 'mesh-sideband': 0, 'hunting-tooth': 0, 'assembly-phase': 0,
