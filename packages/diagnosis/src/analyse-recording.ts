@@ -1,5 +1,4 @@
 import {
-  componentLines,
   speedRangeRpm,
   shaftRatios,
   type MachineModel,
@@ -24,6 +23,7 @@ import {
   type Spectrum,
 } from '@kinespec/signal';
 import { LineCatalogue, type CatalogueLine } from './ambiguity.js';
+import { bearingDefectLines, catalogueLines, runningLines } from './catalogue.js';
 import { accelerationSignal } from './acceleration-signal.js';
 import { buildCandidates, TOOTH_DROP_DEPTH, type CandidateLimits } from './candidates.js';
 import { cepstralPeak, powerCepstrum, type Cepstrum } from './cepstrum.js';
@@ -507,8 +507,8 @@ function envelopeAnalysis(
   let highestDefectHz = 0;
   let slowestBearingShaftHz = Infinity;
   if (model && speedHz !== null) {
-    for (const line of componentLines(model, speedHz, { maxHarmonic: onlyBearingFamilies, sidebands: 0, bearingSidebands: 0 })) {
-      if (line.componentKind === 'bearing' && line.harmonic === 1) highestDefectHz = Math.max(highestDefectHz, line.family === 'bearing-bsf' ? 2 * line.frequencyHz : line.frequencyHz);
+    for (const line of bearingDefectLines(model, speedHz)) {
+      highestDefectHz = Math.max(highestDefectHz, line.family === 'bearing-bsf' ? 2 * line.frequencyHz : line.frequencyHz);
     }
     const ratio = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
     for (const b of model.bearings) slowestBearingShaftHz = Math.min(slowestBearingShaftHz, ratio.get(b.shaft)! * speedHz);
@@ -534,46 +534,6 @@ function envelopeAnalysis(
   const measured = matchableSpectrum(spectrum, noiseFloor(spectrum));
   lap('envelope noise floor');
   return { band, spectrum, measured, squaredEnvelope };
-}
-
-const onlyBearingFamilies = {
-  'shaft-harmonic': 0, 'gear-mesh': 0, 'mesh-sideband': 0, 'hunting-tooth': 0, 'assembly-phase': 0,
-  'bearing-bpfo': 1, 'bearing-bpfi': 1, 'bearing-bsf': 1, 'bearing-ftf': 1, 'bearing-sideband': 0,
-  'blade-pass': 0, 'belt-pass': 0, 'line-frequency': 0, 'synchronous-speed': 0, slip: 0, 'pole-pass': 0,
-} as const;
-
-/**
- * The component lines a spectrum can hold, for the ambiguity flag: the catalogue without the reference lines that
- * are no vibration of their own (synchronous speed, slip, pole pass, hunting-tooth and assembly-phase rates).
- */
-function catalogueLines(model: MachineModel, speedHz: number): Array<CatalogueLine & { bearing: boolean; shaftHarmonic: boolean }> {
-  const reference = new Set(['synchronous-speed', 'slip', 'pole-pass', 'hunting-tooth', 'assembly-phase']);
-  const ratio = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
-  const bearingShaft = new Map(model.bearings.map((b) => [b.id, b.shaft]));
-  return componentLines(model, speedHz, { sidebands: 3, bearingSidebands: 1 }).filter((l) => !reference.has(l.family)).map((l) => ({
-    frequencyHz: l.frequencyHz,
-    component: l.component,
-    label: l.label,
-    kind: l.componentKind,
-    ...(l.componentKind === 'shaft' || l.componentKind === 'rotor' || l.componentKind === 'bearing'
-      ? { shaftRatio: ratio.get(l.shaft ?? bearingShaft.get(l.component) ?? '') }
-      : {}),
-    bearing: l.componentKind === 'bearing',
-    shaftHarmonic: l.family === 'shaft-harmonic',
-  }));
-}
-
-/** Lines every running machine of the model shows: 1× and 2× of each shaft, mesh frequencies 1–3×, blade pass, 2× line frequency. */
-function runningLines(model: MachineModel, speedHz: number): CatalogueLine[] {
-  return componentLines(model, speedHz, {
-    maxHarmonic: {
-      'shaft-harmonic': 2, 'gear-mesh': 3, 'mesh-sideband': 0, 'hunting-tooth': 0, 'assembly-phase': 0,
-      'bearing-bpfo': 0, 'bearing-bpfi': 0, 'bearing-bsf': 0, 'bearing-ftf': 0, 'bearing-sideband': 0,
-      'blade-pass': 2, 'belt-pass': 0, 'line-frequency': 1, 'synchronous-speed': 0, slip: 0, 'pole-pass': 0,
-    },
-    sidebands: 0,
-    bearingSidebands: 0,
-  }).map((l) => ({ frequencyHz: l.frequencyHz, component: l.component, label: l.label }));
 }
 
 function powerCepstrumOf(spectrum: Spectrum): Cepstrum {
