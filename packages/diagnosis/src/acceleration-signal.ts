@@ -1,4 +1,4 @@
-import { convertUnit, quantityOfUnit } from '@kinespec/signal';
+import { convertUnit, quantityOfUnit, scratchArray } from '@kinespec/signal';
 import { fftPlan, previousPowerOfTwo } from './fft-plan.js';
 
 /**
@@ -20,13 +20,14 @@ export function accelerationSignal(samples: Float64Array, sampleRateHz: number, 
   for (let i = 0; i < n; i++) mean += samples[i]!;
   mean /= n;
   const taper = Math.floor(0.05 * n);
-  const x = new Float64Array(n);
+  // Work arrays reused between calls (every element is written before it is read); only `kept` is returned.
+  const x = scratchArray('diagnosis:differentiation-input', n);
   for (let i = 0; i < n; i++) {
     const w = i < taper ? 0.5 - 0.5 * Math.cos((Math.PI * i) / taper) : i >= n - taper ? 0.5 - 0.5 * Math.cos((Math.PI * (n - 1 - i)) / taper) : 1;
     x[i] = (samples[i]! - mean) * w * si;
   }
   const plan = fftPlan(n);
-  const spectrum = new Float64Array(2 * n);
+  const spectrum = scratchArray('diagnosis:differentiation-spectrum', 2 * n);
   plan.realTransform(spectrum, x);
   plan.completeSpectrum(spectrum);
   for (let k = 0; k < n; k++) {
@@ -43,7 +44,7 @@ export function accelerationSignal(samples: Float64Array, sampleRateHz: number, 
     spectrum[2 * k] = re;
     spectrum[2 * k + 1] = im;
   }
-  const out = new Float64Array(2 * n);
+  const out = scratchArray('diagnosis:differentiation-output', 2 * n);
   plan.inverseTransform(out, spectrum);
   const kept = new Float64Array(n - 2 * taper);
   for (let i = 0; i < kept.length; i++) kept[i] = out[2 * (i + taper)]!;

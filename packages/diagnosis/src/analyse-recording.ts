@@ -126,7 +126,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   // Overall velocity and severity.
   const bandHz = isoBandHz(speedHz !== null ? speedHz * 60 : null);
   const velocitySpectrum = quantity === 'velocity'
-    ? { ...withScaling(spectrum, 'psd'), values: withScaling(spectrum, 'psd').values.map((v) => v * convertUnit(1, unit, 'mm/s') ** 2), unit: 'mm/s' }
+    ? velocityPsdMmPerS(spectrum, unit)
     : quantity === 'acceleration'
       ? integrateSpectrum(withScaling(spectrum, 'psd'), 'mm/s')
       : null;
@@ -340,6 +340,13 @@ function stageClock(into: Record<string, number> | undefined): (stage: string) =
     into[stage] = (into[stage] ?? 0) + (now - last);
     last = now;
   };
+}
+
+/** The PSD of a velocity channel's spectrum in (mm/s)²/Hz: one scaling pass, one unit factor. */
+function velocityPsdMmPerS(spectrum: Spectrum, unit: string): Spectrum {
+  const psd = withScaling(spectrum, 'psd');
+  const squaredFactor = convertUnit(1, unit, 'mm/s') ** 2;
+  return { ...psd, values: psd.values.map((v) => v * squaredFactor), unit: 'mm/s' };
 }
 
 function defaultUnit(quantity: 'acceleration' | 'velocity' | 'displacement'): string {
