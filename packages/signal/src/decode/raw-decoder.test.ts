@@ -1,17 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { codeOf } from '../../../../tests/support/signal-error-code.js';
 import { SignalInputError } from '../errors.js';
 import { decodeRaw } from './raw-decoder.js';
-
-function codeOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(SignalInputError);
-    return (error as SignalInputError).code;
-  }
-  return undefined;
-}
 
 describe('decodeRaw', () => {
   it('reads little-endian float32 and float64 (IEEE 754 bit patterns written by DataView)', () => {

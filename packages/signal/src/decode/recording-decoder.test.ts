@@ -1,22 +1,13 @@
 import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { codeOf } from '../../../../tests/support/signal-error-code.js';
 import { SignalInputError } from '../errors.js';
 import { decodeRecording, detectRecordingFormat } from './recording-decoder.js';
 import { encodeWav } from './wav-encoder.js';
 
 const fixture = (name: string) => new Uint8Array(readFileSync(new URL(`../../../../fixtures/decode/${name}`, import.meta.url)));
 const text = (s: string) => new TextEncoder().encode(s);
-
-function codeOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(SignalInputError);
-    return (error as SignalInputError).code;
-  }
-  return undefined;
-}
 
 describe('detectRecordingFormat', () => {
   it('prefers the explicit format, then RIFF magic, Content-Type, extension, sampleFormat and content', () => {

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { codeOf } from '../../../../tests/support/signal-error-code.js';
 import { SignalInputError } from '../errors.js';
 import { decodeWav, decodeWavFrames, decodeWavFramesPortable, parseWavFormat, type WavFormat } from './wav-decoder.js';
 
@@ -36,16 +37,6 @@ function asScipyValue(x: number, dtype: string): number {
   if (dtype === 'int16') return x * 32768;
   if (dtype === 'int32') return x * 2147483648;
   return x;
-}
-
-function codeOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(SignalInputError);
-    return (error as SignalInputError).code;
-  }
-  return undefined;
 }
 
 describe('decodeWav', () => {

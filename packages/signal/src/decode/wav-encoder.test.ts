@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { SignalInputError } from '../errors.js';
+import { codeOf } from '../../../../tests/support/signal-error-code.js';
 import type { Recording } from '../recording.js';
 import { decodeWav } from './wav-decoder.js';
 import { encodeWav } from './wav-encoder.js';
@@ -13,16 +13,6 @@ const mono = (samples: number[], sampleRateHz = 8000): Recording => ({
   channels: [{ name: 'ch1', unit: 'FS', samples: Float64Array.from(samples) }],
   metadata: {},
 });
-
-function codeOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    expect(error).toBeInstanceOf(SignalInputError);
-    return (error as SignalInputError).code;
-  }
-  return undefined;
-}
 
 const bitsOf: Record<WavSampleFormat, number> = { pcm8: 8, pcm16: 16, pcm24: 24, pcm32: 32, float32: 32, float64: 64 };
 
