@@ -51,7 +51,12 @@ export interface CorpusMetrics {
   /** All counted recordings with a gear or bearing hypothesis at >= 0.5 naming no labelled fault. */
   wrongGearBearing: Rate;
   calibration: { bins: CalibrationBin[]; all: Rate };
-  speed: { fromSpectrum: number; medianAbsErrorPercent: number | null; maxAbsErrorPercent: number | null; given: number };
+  /**
+   * Speed the analysis used against the labelled one, where it came from the spectrum; `given`: recordings whose speed
+   * the analysis was told; `nominalFallback`: recordings with no speed given whose spectrum showed none, so the
+   * analysis ran at the model's nominal speed (it reports that source as 'given' too).
+   */
+  speed: { fromSpectrum: number; medianAbsErrorPercent: number | null; maxAbsErrorPercent: number | null; given: number; nominalFallback: number };
   analysisMs: { median: number | null; max: number | null };
 }
 
@@ -165,6 +170,7 @@ export function corpusMetrics(outcomes: readonly CaseOutcome[]): CorpusMetrics {
       medianAbsErrorPercent: median(spectrumErrors),
       maxAbsErrorPercent: spectrumErrors.length ? Math.max(...spectrumErrors) : null,
       given: counted.filter((o) => o.label.speedGiven).length,
+      nominalFallback: counted.filter((o) => !o.label.speedGiven && o.speedSource === 'given').length,
     },
     analysisMs: { median: median(times), max: times.length ? Math.max(...times) : null },
   };

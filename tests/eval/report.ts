@@ -96,7 +96,7 @@ export function corpusBlock(r: CorpusReport, options: PrintOptions): string[] {
     const s = m.speed;
     out.push(
       `   speed from the spectrum: ${s.fromSpectrum ? `${s.fromSpectrum} recordings, median |error| ${s.medianAbsErrorPercent!.toFixed(3)} %, max ${s.maxAbsErrorPercent!.toFixed(3)} %` : 'none'}` +
-        `${s.given ? `; speed given to the analysis in ${s.given}` : '; speed never given'}; analysis time median ${m.analysisMs.median?.toFixed(0) ?? '-'} ms, max ${m.analysisMs.max?.toFixed(0) ?? '-'} ms`,
+        `${s.given ? `; speed given to the analysis in ${s.given}` : '; speed never given'}${s.nominalFallback ? `; no speed found, nominal used, in ${s.nominalFallback}` : ''}; analysis time median ${m.analysisMs.median?.toFixed(0) ?? '-'} ms, max ${m.analysisMs.max?.toFixed(0) ?? '-'} ms`,
     );
   }
   const listAll = options.allCases || LIST_ALL.has(r.id);
