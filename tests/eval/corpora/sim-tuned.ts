@@ -1,6 +1,6 @@
 // The earlier evaluation: the own simulator at the fixed settings the analysis was tuned on (eval-cases.ts), and
 // its variable-speed recordings with a tach, diagnosed without and with order tracking.
-import { simulateRecording } from '@kinespec/simulator';
+import { simulateRecording, type FaultKind } from '@kinespec/simulator';
 import type { Corpus, LabelledCase } from '../corpus.js';
 import { evaluationCases, rampCases, type EvalCase, type RampCase } from '../eval-cases.js';
 import { demoMachines } from './demo-machines.js';
@@ -12,10 +12,15 @@ export function* lazily<T>(items: readonly T[], make: (item: T) => LabelledCase)
 
 export const OWN_SIMULATOR_SOURCE = '@kinespec/simulator (time-domain physics, independent of @kinespec/signatures), seeds fixed';
 
+/** The fault a tuned or ramp case builds in, as the simulator and the label take it. */
+function faultsOf(c: EvalCase | RampCase): Array<{ fault: FaultKind; component: string; severity: number }> {
+  return c.fault === 'healthy' ? [] : [{ fault: c.fault, component: c.component!, severity: c.severity }];
+}
+
 /** One tuned-settings case as a labelled recording (speed not given, as before). */
 export function tunedCase(c: EvalCase): LabelledCase {
   const machine = demoMachines()[c.machine]!;
-  const faults = c.fault === 'healthy' ? [] : [{ fault: c.fault, component: c.component!, severity: c.severity }];
+  const faults = faultsOf(c);
   return {
     id: `sim-tuned/${c.id}`,
     machine,
@@ -49,7 +54,7 @@ export function tunedCorpus(): Corpus {
 /** One ramp with its tach channel; `domain` 'frequency' forces the frequency domain, 'auto' order-tracks from the tach. */
 export function rampCase(c: RampCase, domain: 'frequency' | 'auto'): LabelledCase {
   const machine = demoMachines()[c.machine]!;
-  const faults = c.fault === 'healthy' ? [] : [{ fault: c.fault, component: c.component!, severity: c.severity }];
+  const faults = faultsOf(c);
   return {
     id: `sim-ramp-${domain === 'auto' ? 'order' : 'frequency'}/${c.id}`,
     machine,
