@@ -60,6 +60,8 @@ export interface AnalyseOptions {
 const MIN_SNR_DB = 6;
 /** Unexplained peaks must stand this far above the floor. */
 const UNEXPLAINED_MIN_SNR_DB = 12;
+/** Zone boundaries used for levels when the model states no ISO class: group 2, rigid (the smallest machines of ISO 20816-3). */
+const DEFAULT_BOUNDARIES = { abMmPerS: 1.4, bcMmPerS: 2.8 };
 /** At most this many predicted lines per hypothesis are matched (the strongest). */
 const MAX_LINES = 48;
 
@@ -161,7 +163,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   let catalogue: CatalogueLine[] = [];
   if (model && speedHz !== null && point && speed) {
     catalogue = catalogueLines(model, speedHz);
-    judged = hypothesesStage(model, point, speed, speedHz, unit, quantity, measured, angle, envelope, severity.boundaries?.abMmPerS ?? 1.4, options, warnings, lap);
+    judged = hypothesesStage(model, point, speed, speedHz, unit, quantity, measured, angle, envelope, severity.boundaries ?? DEFAULT_BOUNDARIES, options, warnings, lap);
   } else if (model && !point) {
     warnings.push('the model has no vibration point for this channel; no fault hypotheses scored');
   }
@@ -309,7 +311,7 @@ function envelopeResolution(model: MachineModel | null, speedHz: number | null):
 function hypothesesStage(
   model: MachineModel, point: NonNullable<ReturnType<typeof pointOf>>, speed: RunningSpeed, speedHz: number, unit: string,
   quantity: 'acceleration' | 'velocity' | 'displacement', measured: MatchableSpectrum, angle: AngleSpectra | null,
-  envelope: EnvelopeStage | null, isoAbMmPerS: number, options: AnalyseOptions, warnings: string[], lap: (stage: string) => void,
+  envelope: EnvelopeStage | null, iso: { abMmPerS: number; bcMmPerS: number }, options: AnalyseOptions, warnings: string[], lap: (stage: string) => void,
 ): Judged[] {
   const spectrum = measured.spectrum;
   // In the angle domain every frequency is an order (Hz of the reference shaft = 1) and converts back by the mean speed.
@@ -341,7 +343,7 @@ function hypothesesStage(
     model, point, candidates, main, unit, quantity, unitHz, lineSpeedHz: lineSpeed, referenceSpeedHz: speedHz,
     speedUncertaintyHz: angle ? 0 : speed.uncertaintyHz,
     speed: { source: speed.source, supportOrders: speed.supportOrders, givenAgrees: speed.givenAgrees },
-    minSnrDb: MIN_SNR_DB, isoAbMmPerS, baseline: options.baseline ?? null, baselineOrders: point.baseline?.orders ?? null, pointUnit: point.unit ?? null,
+    minSnrDb: MIN_SNR_DB, isoAbMmPerS: iso.abMmPerS, isoBcMmPerS: iso.bcMmPerS, baseline: options.baseline ?? null, baselineOrders: point.baseline?.orders ?? null, pointUnit: point.unit ?? null,
     catalogue: new LineCatalogue(lineCatalogue.filter((l) => !l.bearing)),
     runningLines: new LineCatalogue(runningLines(model, lineSpeed)),
     envelope: envelope ? { source: envelope.source, speedUncertaintyFraction: angle ? 0 : speed.uncertaintyHz / speedHz } : null,
