@@ -169,6 +169,8 @@ const SYNC_BINS = 2;
 const DENSE_RATE_FACTOR = 3;
 /** Sidebands of each modulation rate, either side of every harmonic, that belong to a pattern found (a strongly modulated impact train has many). */
 const OWN_SIDEBANDS = 6;
+/** Of those, the ones left out of the pattern's own chance neighbourhood. */
+const NEAR_SIDEBANDS = 2;
 /** Share of a harmonic's frequency within which a found pattern's broadened lines still count as its own. */
 const OWN_SPREAD_FRACTION = 0.005;
 /** Smallest half-width of a chance neighbourhood, bins. */
@@ -219,31 +221,35 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
   const n = spectrum.values.length;
   const foreign = foreignHarmonicBins(measured, options.foreignRates);
   const eligible = (k: number) => !foreign[k] && snrDb[k]! >= options.minLineSnrDb && !isLeakagePeak(measured, k);
-  const own = new Uint8Array(n);
-  if (slip !== null) {
-    // The pattern's whole modulation lattice: each harmonic with its sidebands out to ±OWN_SIDEBANDS of each rate.
-    const rates = [...comb.modulationHz, ...(comb.sidebandHz ? [comb.sidebandHz] : [])];
-    const mods = [0, ...rates.flatMap((m) => Array.from({ length: OWN_SIDEBANDS }, (_, j) => [(j + 1) * m, -(j + 1) * m]).flat())];
-    // Every harmonic the spectrum holds, not only those weighed: the pattern's own lines are nobody's clutter.
-    const top = Math.floor(((n - 1) * df) / (comb.defectHz * slip));
-    for (let h = 1; h <= top; h++) {
-      // Random slip broadens the higher harmonics of a found pattern: half a percent of each is still its own.
-      const tol = df + 3 * options.speedUncertaintyFraction * h * comb.defectHz + OWN_SPREAD_FRACTION * h * comb.defectHz;
-      for (const m of mods) {
-        const c = h * comb.defectHz * slip + m;
-        for (let k = Math.max(0, Math.floor((c - tol) / df) - 1); k <= Math.min(n - 1, Math.ceil((c + tol) / df) + 1); k++) own[k] = 1;
-      }
-    }
-  }
+  // The pattern's own lines, once the slip is known: the peaks standing on its modulation lattice (each harmonic the
+  // spectrum holds, with its sidebands at the rates the resolution separates). Only peaks are taken, not the
+  // lattice's empty positions. Within ±2 sidebands they are left out of the chance neighbourhood (a found pattern must
+  // not be its own clutter); out to ±OWN_SIDEBANDS they are left out of the modulation probes too (a strongly modulated
+  // impact train carries many sidebands, each with its neighbours: it must not make the spectrum look modulated
+  // everywhere). Beyond ±2 they stay clutter: a hypothesis must not clear its neighbourhood of everything its wide
+  // lattice happens to touch.
+  const own = slip === null ? new Uint8Array(n) : ownPeaks(comb, measured, slip, NEAR_SIDEBANDS, options);
+  const ownWide = slip === null ? own : ownPeaks(comb, measured, slip, OWN_SIDEBANDS, options);
   const harmonics: HarmonicContext[] = [];
   for (let h = 1; h <= harmonicCount; h++) {
     const c = Math.round((h * comb.defectHz) / df);
-    const reach = Math.max(NEIGHBOURHOOD_MIN_BINS, c);
-    const lo = Math.max(1, c - reach);
-    const hi = Math.min(n - 2, c + reach);
-    const neighbourhood: number[] = [];
+    // ±max(50 bins, its frequency), widened until it holds NEIGHBOURHOOD_MIN_BINS bins that are neither the pattern's
+    // nor a foreign harmonic's (a strongly modulated pattern can own most of the bins near its first harmonics).
+    let reach = Math.max(NEIGHBOURHOOD_MIN_BINS, c);
+    let lo = Math.max(1, c - reach);
+    let hi = Math.min(n - 2, c + reach);
     let width = 0;
     for (let k = lo; k <= hi; k++) if (!own[k] && !foreign[k]) width++;
+    while (width < NEIGHBOURHOOD_MIN_BINS && (lo > 1 || hi < n - 2)) {
+      reach *= 2;
+      const lo2 = Math.max(1, c - reach);
+      const hi2 = Math.min(n - 2, c + reach);
+      for (let k = lo2; k < lo; k++) if (!own[k] && !foreign[k]) width++;
+      for (let k = hi + 1; k <= hi2; k++) if (!own[k] && !foreign[k]) width++;
+      lo = lo2;
+      hi = hi2;
+    }
+    const neighbourhood: number[] = [];
     for (let i = firstAtOrAbove(maxima, lo); i < maxima.length && maxima[i]! <= hi; i++) {
       const k = maxima[i]!;
       if (!own[k] && !foreign[k]) neighbourhood.push(snrDb[k]!);
@@ -289,7 +295,7 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
     });
   }
   // Sidebands say something only where most strong peaks of the spectrum do not carry them anyway.
-  const modulated = comb.sidebandHz ? modulationRate(measured, comb.sidebandHz, own, foreign, options.minLineSnrDb) : { rate: 1, probes: Infinity };
+  const modulated = comb.sidebandHz ? modulationRate(measured, comb.sidebandHz, ownWide, foreign, options.minLineSnrDb) : { rate: 1, probes: Infinity };
   const sidebandsInform = modulated.probes < MIN_MODULATION_PROBES || modulated.rate < UBIQUITOUS_MODULATION;
   const sidebandFloor = modulated.probes < MIN_MODULATION_PROBES ? 0 : modulated.rate;
   const sidebandMemo = new Map<number, ReturnType<BandContext['sidebandsOf']>>();
@@ -328,6 +334,31 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
     return out;
   };
   return { measured, harmonics, sidebandsOf };
+}
+
+/** The bins of the peaks on a comb's modulation lattice at a slip, with sidebands out to ±sidebands (see bandContext). */
+function ownPeaks(comb: BearingComb, measured: MatchableSpectrum, slip: number, sidebands: number, options: CombSearchOptions): Uint8Array {
+  const { spectrum, snrDb, maxima } = measured;
+  const df = spectrum.frequencyResolutionHz;
+  const n = spectrum.values.length;
+  const own = new Uint8Array(n);
+  const rates = [...comb.modulationHz, ...(comb.sidebandHz ? [comb.sidebandHz] : [])].filter((m) => m >= 2 * SYNC_BINS * df);
+  const mods = [0, ...rates.flatMap((m) => Array.from({ length: sidebands }, (_, j) => [(j + 1) * m, -(j + 1) * m]).flat())];
+  const top = Math.floor(((n - 1) * df) / (comb.defectHz * slip));
+  for (let h = 1; h <= top; h++) {
+    // Random slip broadens the higher harmonics of a found pattern: half a percent of each is still its own.
+    const tol = df + 3 * options.speedUncertaintyFraction * h * comb.defectHz + OWN_SPREAD_FRACTION * h * comb.defectHz;
+    for (const m of mods) {
+      const c = h * comb.defectHz * slip + m;
+      const a = Math.max(1, Math.ceil((c - tol) / df));
+      const b = Math.min(n - 2, Math.floor((c + tol) / df));
+      for (let i = firstAtOrAbove(maxima, a); i < maxima.length && maxima[i]! <= b; i++) {
+        const k = maxima[i]!;
+        if (snrDb[k]! >= options.minLineSnrDb) for (let j = k - 1; j <= k + 1; j++) own[j] = 1;
+      }
+    }
+  }
+  return own;
 }
 
 /**
