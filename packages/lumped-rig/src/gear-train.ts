@@ -1,6 +1,17 @@
 import { Rk4, rk4StepS } from './rk4.js';
 import { symmetricEigenvalues } from './symmetric-eigenvalues.js';
-import type { ToothPairMesh } from './tooth-pair-mesh.js';
+/**
+ * What the train needs of a stage's tooth contact (ToothPairMesh is the rig's; tests pass simpler ones, e.g. a
+ * constant linear spring, to compare with closed forms).
+ */
+export interface MeshContact {
+  /** Tooth force (N, >= 0) at mesh position u (base pitches), approach δ (m) and its rate (m/s). */
+  forceN(u: number, approachM: number, approachRateMPerS: number): number;
+  meanStiffnessNPerM: number;
+  peakPairStiffnessNPerM: number;
+  /** Base pitches a pair stays in contact (so at most ceil of it pairs at once). */
+  contactPitches: number;
+}
 
 /**
  * A lumped-parameter gear train: motor, then S gear stages, then the load, in one torsional chain, each gear body
@@ -20,7 +31,7 @@ import type { ToothPairMesh } from './tooth-pair-mesh.js';
  *   δ_i = r_bp φ_p − r_bg φ_g + y_p − y_g − e_ecc(t),  F_i = mesh_i.forceN(u_i, δ_i, δ̇_i)
  */
 export interface GearStageDynamics {
-  mesh: ToothPairMesh;
+  mesh: MeshContact;
   pinionTeeth: number;
   wheelTeeth: number;
   baseRadiusPinionM: number;
@@ -173,7 +184,7 @@ export function gearTrainStepS(spec: GearTrainSpec): number {
 }
 
 /** The approach δ (m) at which the mesh carries `forceN` at position u without motion. */
-export function staticApproachM(mesh: ToothPairMesh, u: number, forceN: number): number {
+export function staticApproachM(mesh: MeshContact, u: number, forceN: number): number {
   if (forceN <= 0) return 0;
   let lo = -1e-3;
   let hi = 1e-3;
@@ -219,9 +230,10 @@ export function staticState(spec: GearTrainSpec): Float64Array {
 
 /**
  * Integrates the train from its static state for `steps` steps of `stepS` and returns every step's bearing and
- * tooth forces. The caller discards the first part as run-in.
+ * tooth forces. The caller discards the first part as run-in. `observe` sees the state [φ..., y..., φ̇..., ẏ...]
+ * after each step (for tests; it must not modify it).
  */
-export function simulateGearTrain(spec: GearTrainSpec, stepS: number, steps: number): GearTrainRun {
+export function simulateGearTrain(spec: GearTrainSpec, stepS: number, steps: number, observe?: (tS: number, state: Float64Array) => void): GearTrainRun {
   checkSpec(spec);
   if (!(stepS > 0)) throw new RangeError(`stepS (${stepS}) must be > 0`);
   if (!(Number.isInteger(steps) && steps > 0)) throw new RangeError(`steps (${steps}) must be a whole number > 0`);
@@ -308,6 +320,7 @@ export function simulateGearTrain(spec: GearTrainSpec, stepS: number, steps: num
       meshForceN[i]![k] = meshForce[i]!;
     }
     motorSpeedDeviationRadPerS[k] = state[n]!;
+    if (observe !== undefined) observe(t + stepS, state);
   }
   return { stepS, bearingForceN, meshForceN, motorSpeedDeviationRadPerS };
 }
