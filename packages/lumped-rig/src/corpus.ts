@@ -16,7 +16,7 @@ export interface CorpusOptions {
   seed: number;
   /** Number of cases; default FULL_COUNT, or QUICK_COUNT when `quick`. */
   count?: number;
-  /** A small, short set for CI: QUICK_COUNT cases of at most QUICK_MAX_SAMPLES samples. */
+  /** A small, short set for CI: QUICK_COUNT cases at QUICK_SAMPLE_RATES_HZ over QUICK_DURATION_RANGE_S. */
   quick?: boolean;
 }
 
@@ -44,7 +44,9 @@ export const FULL_COUNT = 80;
 export const QUICK_COUNT = 12;
 /** Output samples per recording at most (about 4 MB of Float64). */
 export const MAX_SAMPLES = 500_000;
-export const QUICK_MAX_SAMPLES = 60_000;
+/** The quick set keeps to the lower logger rates and to 0.5-1 s, so that CI makes it in a few seconds. */
+export const QUICK_SAMPLE_RATES_HZ = [12_800, 20_000, 25_600] as const;
+export const QUICK_DURATION_RANGE_S: [number, number] = [0.5, 1];
 /** Integration steps per recording at most (keeps the full corpus within about two minutes on one core). */
 export const MAX_INTERNAL_STEPS = 700_000;
 /** Sample rates of common data loggers (Hz). */
@@ -179,52 +181,75 @@ function planCases(count: number, random: Random): CasePlan[] {
   return plans;
 }
 
-/** The corpus one case at a time (a full corpus holds some 100 MB of samples; an evaluation can stream it). */
-export function* corpusCases(options: CorpusOptions): Generator<CorpusCase> {
+/** Everything drawn for one case before synthesis: cheap to list, so a corpus can be inspected before it is made. */
+export interface CorpusCasePlan {
+  id: string;
+  machine: RigMachine;
+  pointId: string;
+  faults: RigFault[];
+  speedRpm: number;
+  sampleRateHz: number;
+  durationS: number;
+  noise: { rmsG: number; colour: NoiseColour };
+  backgroundRmsG: number;
+  /** Seed of the recording's own draws (path, mount, manufacturing deviations, impacts, noise). */
+  seed: number;
+}
+
+/** The plan of every case of a corpus, in order. Deterministic for a seed. */
+export function corpusPlan(options: CorpusOptions): CorpusCasePlan[] {
   const { seed } = options;
   if (!Number.isFinite(seed)) throw new RangeError(`seed (${seed}) must be a finite number`);
   const quick = options.quick === true;
   const count = options.count ?? (quick ? QUICK_COUNT : FULL_COUNT);
   if (!(Number.isInteger(count) && count >= 1)) throw new RangeError(`count (${count}) must be a whole number >= 1`);
   const random = createRandom(seed);
-  const plans = planCases(count, random.fork('plan'));
   const rates = new Map<RigMachine, number>(rigMachines.map((m) => [m, requiredInternalRateHz(m)]));
-  for (const plan of plans) {
+  return planCases(count, random.fork('plan')).map((plan) => {
     const r = createRandom(deriveSeed(seed, `case-${plan.index}`));
     const { minRpm = plan.machine.model.speed.nominalRpm, maxRpm = plan.machine.model.speed.nominalRpm } = plan.machine.model.speed;
     const speedRpm = r.between(minRpm, maxRpm);
-    const sampleRateHz = r.pick(SAMPLE_RATES_HZ);
+    const sampleRateHz = r.pick(quick ? QUICK_SAMPLE_RATES_HZ : SAMPLE_RATES_HZ);
     const factor = Math.max(2, Math.ceil(rates.get(plan.machine)! / sampleRateHz));
-    const maxSamples = Math.min(quick ? QUICK_MAX_SAMPLES : MAX_SAMPLES, Math.floor(MAX_INTERNAL_STEPS / factor));
-    const durationS = Math.min(r.logBetween(...DURATION_RANGE_S), maxSamples / sampleRateHz);
+    const maxSamples = Math.min(MAX_SAMPLES, Math.floor(MAX_INTERNAL_STEPS / factor));
+    const drawnS = r.logBetween(...(quick ? QUICK_DURATION_RANGE_S : DURATION_RANGE_S));
+    const durationS = Math.round(sampleRateHz * Math.min(drawnS, maxSamples / sampleRateHz)) / sampleRateHz;
     const colour: NoiseColour = r.uniform() < PINK_NOISE_SHARE ? 'pink' : 'white';
-    const noiseRmsG = r.logBetween(...SENSOR_NOISE_RMS_G);
-    const backgroundRmsG = r.logBetween(...BACKGROUND_RMS_G);
-    const caseSeed = deriveSeed(seed, `synthesis-${plan.index}`);
-    const result = synthesizeRecording({
+    return {
+      id: `lumped-rig/s${seed}/${String(plan.index).padStart(3, '0')}`,
       machine: plan.machine,
       pointId: plan.pointId,
+      faults: plan.faults,
       speedRpm,
       sampleRateHz,
       durationS,
-      faults: plan.faults,
-      seed: caseSeed,
-      noise: { rmsG: noiseRmsG, colour },
-      backgroundRmsG,
-    });
-    yield {
-      id: `lumped-rig/s${seed}/${String(plan.index).padStart(3, '0')}`,
-      machine: structuredClone(plan.machine.model),
-      pointId: plan.pointId,
-      recording: result.recording,
-      label: {
-        faults: plan.faults.map((f, i) => ({ ...f, size: result.faultSizes[i]! })),
-        speedRpm,
-        speedGiven: false,
-      },
-      draws: { ...result.draws, sensorNoiseRmsG: noiseRmsG, sensorNoiseColour: colour, backgroundRmsG },
+      noise: { rmsG: r.logBetween(...SENSOR_NOISE_RMS_G), colour },
+      backgroundRmsG: r.logBetween(...BACKGROUND_RMS_G),
+      seed: deriveSeed(seed, `synthesis-${plan.index}`),
     };
-  }
+  });
+}
+
+/** Synthesises one planned case. */
+export function synthesizeCase(plan: CorpusCasePlan): CorpusCase {
+  const result = synthesizeRecording(plan);
+  return {
+    id: plan.id,
+    machine: structuredClone(plan.machine.model),
+    pointId: plan.pointId,
+    recording: result.recording,
+    label: {
+      faults: plan.faults.map((f, i) => ({ ...f, size: result.faultSizes[i]! })),
+      speedRpm: plan.speedRpm,
+      speedGiven: false,
+    },
+    draws: { ...result.draws, sensorNoiseRmsG: plan.noise.rmsG, sensorNoiseColour: plan.noise.colour, backgroundRmsG: plan.backgroundRmsG },
+  };
+}
+
+/** The corpus one case at a time (a full corpus holds some 80 MB of samples; an evaluation can stream it). */
+export function* corpusCases(options: CorpusOptions): Generator<CorpusCase> {
+  for (const plan of corpusPlan(options)) yield synthesizeCase(plan);
 }
 
 /** The whole corpus at once. Deterministic for a seed. */

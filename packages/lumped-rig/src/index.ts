@@ -1,6 +1,6 @@
 // Public surface of @kinespec/lumped-rig: an independent source of labelled vibration recordings (lumped gear
 // dynamics, cyclostationary bearing impacts, shaft faults) on machines of its own. It imports no other package.
-export { generateCorpus, corpusCases, faultOptions, type CorpusCase, type CorpusLabel, type CorpusOptions } from './corpus.js';
+export { generateCorpus, corpusCases, corpusPlan, synthesizeCase, faultOptions, type CorpusCase, type CorpusCasePlan, type CorpusLabel, type CorpusOptions } from './corpus.js';
 export { synthesizeRecording, STANDARD_GRAVITY, type RigRecording, type SynthesisPlan, type SynthesisResult } from './recording-synthesis.js';
 export { rigMachines, rigMachine } from './rig-machines.js';
 export type { RigMachine } from './rig-machine.js';

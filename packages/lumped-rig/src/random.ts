@@ -1,6 +1,6 @@
 /**
  * A seeded pseudo-random source: every draw of the rig goes through one of these, so that a corpus is a pure
- * function of its seed (no Math.random anywhere in the package).
+ * function of its seed (the platform's own generator is never used).
  */
 export interface Random {
   /** Uniform on [0, 1). */

@@ -86,12 +86,6 @@ export class ToothPairMesh {
     return Math.min(s, this.contactPitches - s, this.rampPitches) / this.rampPitches;
   }
 
-  private relief(s: number): number {
-    const L = this.spec.reliefLengthPitches;
-    const a = 1 - s / L;
-    const b = 1 - (this.contactPitches - s) / L;
-    return this.spec.tipReliefM * ((a > 0 ? a * a : 0) + (b > 0 ? b * b : 0));
-  }
 
   /** Sum of the pair stiffnesses in contact at mesh position u (no deviations), N/m. */
   stiffnessNPerM(u: number): number {
@@ -107,26 +101,39 @@ export class ToothPairMesh {
 
   /**
    * Total tooth force along the line of action, N (>= 0), for an approach δ (m) of the pinion's flank on the
-   * wheel's, its rate δ̇ (m/s), at mesh position u.
+   * wheel's, its rate δ̇ (m/s), at mesh position u. (The hot loop of the gear train: arrays read into locals.)
    */
   forceN(u: number, approachM: number, approachRateMPerS: number): number {
-    const spec = this.spec;
+    const { pinionToothStiffness: kp, wheelToothStiffness: kg, pinionPitchDeviationM: ep, wheelPitchDeviationM: eg, pinionWearM: wp, wheelWearM: wg, tipReliefM, reliefLengthPitches } = this.spec;
+    const contact = this.contactPitches;
+    const ramp = this.rampPitches;
+    const peak = this.peakPairStiffnessNPerM;
+    const dampingShare = this.dampingPerStiffness * approachRateMPerS;
     let total = 0;
+    let j = Math.floor(u - contact) + 1;
     const jHigh = Math.floor(u);
-    for (let j = Math.floor(u - this.contactPitches) + 1; j <= jHigh; j++) {
+    let ip = mod(j, this.zp);
+    let ig = mod(j, this.zg);
+    for (; j <= jHigh; j++) {
       const s = u - j;
-      const ip = mod(j, this.zp);
-      const ig = mod(j, this.zg);
-      const k = this.peakPairStiffnessNPerM * this.pairShape(s) * spec.pinionToothStiffness[ip]! * spec.wheelToothStiffness[ig]!;
-      if (k <= 0) continue;
-      // Wear grows with sliding distance, which is zero at the pitch point (mid-contact) and largest at tip and root
-      // (Archard's law with sliding speed proportional to the distance from the pitch point; e.g. Flodin & Andersson 1997, Wear 207:16-23; from memory).
-      const fromPitchPoint = Math.abs(2 * s / this.contactPitches - 1);
-      const deviation = spec.pinionPitchDeviationM[ip]! + spec.wheelPitchDeviationM[ig]! + this.relief(s) + (spec.pinionWearM[ip]! + spec.wheelWearM[ig]!) * fromPitchPoint;
-      const penetration = approachM - deviation;
-      if (penetration <= 0) continue;
-      const f = k * (penetration + this.dampingPerStiffness * approachRateMPerS);
-      if (f > 0) total += f;
+      const toothFactor = kp[ip]! * kg[ig]!;
+      if (toothFactor > 0 && s > 0 && s < contact) {
+        const k = (peak * toothFactor * Math.min(s, contact - s, ramp)) / ramp;
+        const a = 1 - s / reliefLengthPitches;
+        const b = 1 - (contact - s) / reliefLengthPitches;
+        const relief = tipReliefM * ((a > 0 ? a * a : 0) + (b > 0 ? b * b : 0));
+        // Wear grows with sliding distance, which is zero at the pitch point (mid-contact) and largest at tip and
+        // root (Archard's law with sliding speed proportional to the distance from the pitch point; e.g. Flodin &
+        // Andersson 1997, Wear 207:16-23; from memory).
+        const fromPitchPoint = Math.abs((2 * s) / contact - 1);
+        const penetration = approachM - (ep[ip]! + eg[ig]! + relief + (wp[ip]! + wg[ig]!) * fromPitchPoint);
+        if (penetration > 0) {
+          const f = k * (penetration + dampingShare);
+          if (f > 0) total += f;
+        }
+      }
+      if (++ip === this.zp) ip = 0;
+      if (++ig === this.zg) ig = 0;
     }
     return total;
   }

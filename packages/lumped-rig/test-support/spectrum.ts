@@ -71,3 +71,19 @@ export function envelopeSpectrum(x: ArrayLike<number>, sampleRateHz: number, low
   const envelope = Array.from({ length: n }, (_, i) => analytic[2 * i]! ** 2 + analytic[2 * i + 1]! ** 2);
   return amplitudeSpectrum(envelope, sampleRateHz);
 }
+
+/** Amplitude of the tone at exactly frequencyHz (Hann-windowed single-bin DFT: no scalloping, little leakage). */
+export function toneAmplitude(x: ArrayLike<number>, sampleRateHz: number, frequencyHz: number): number {
+  const n = x.length;
+  let re = 0;
+  let im = 0;
+  let windowSum = 0;
+  for (let i = 0; i < n; i++) {
+    const w = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / n);
+    const phase = (2 * Math.PI * frequencyHz * i) / sampleRateHz;
+    re += w * x[i]! * Math.cos(phase);
+    im -= w * x[i]! * Math.sin(phase);
+    windowSum += w;
+  }
+  return (2 * Math.hypot(re, im)) / windowSum;
+}
