@@ -25,6 +25,8 @@ export interface CorpusLabel {
   faults: Array<{ fault: RigFaultKind; component: string; severity: RigSeverity; size: FaultSize }>;
   /** True mean speed of the model's reference shaft, rpm. */
   speedRpm: number;
+  /** True speed of every shaft, rpm (a belt's true slip differs from the model's stated one). */
+  shaftSpeedsRpm: Record<string, number>;
   /** The speed is never given to the analysis: it must find it. */
   speedGiven: false;
 }
@@ -42,12 +44,16 @@ export interface CorpusCase {
 
 export const FULL_COUNT = 80;
 export const QUICK_COUNT = 12;
-/** Output samples per recording at most (about 4 MB of Float64). */
+/** Output samples per recording at most (about 4 MB of Float64): 96 kHz recordings stop at 5.2 s. */
 export const MAX_SAMPLES = 500_000;
 /** The quick set keeps to the lower logger rates and to 0.5-1 s, so that CI makes it in a few seconds. */
 export const QUICK_SAMPLE_RATES_HZ = [12_800, 20_000, 25_600] as const;
 export const QUICK_DURATION_RANGE_S: [number, number] = [0.5, 1];
-/** Integration steps per recording at most (keeps the full corpus within about two minutes on one core). */
+/**
+ * Integration steps per recording at most: gear machines integrate at about 77 kHz whatever the output rate, so
+ * this shortens their long, fast recordings (a 96 kHz gear recording stops at 3.6 s) and keeps the full corpus
+ * within about a minute on one core.
+ */
 export const MAX_INTERNAL_STEPS = 700_000;
 /** Sample rates of common data loggers (Hz). */
 export const SAMPLE_RATES_HZ = [12_800, 20_000, 25_600, 48_000, 51_200, 96_000] as const;
@@ -57,7 +63,12 @@ export const HEALTHY_SHARE = 0.25;
 export const TWO_FAULT_SHARE = 0.2;
 /** Share of faulty cases measured at another point of the same casing than the faulty component's own. */
 export const NEIGHBOUR_POINT_SHARE = 0.2;
-/** Sensor noise (r.m.s. g, log-uniform), pink with this probability, and broadband machine noise (r.m.s. g). */
+/**
+ * Sensor noise, r.m.s. g over the band (log-uniform): a general-purpose 100 mV/g IEPE accelerometer and its logger
+ * have a broadband floor of a few tenths of a mg (from memory of data sheets), cables and a poor mount raise it
+ * tenfold; pink with this probability. Broadband machine noise (flow, rolling, neighbours) at the sensor through
+ * the local resonances, 3-30 mg r.m.s. (assumed; it sets the haystacks under the resonances).
+ */
 export const SENSOR_NOISE_RMS_G: [number, number] = [3e-4, 3e-3];
 export const PINK_NOISE_SHARE = 0.4;
 export const BACKGROUND_RMS_G: [number, number] = [3e-3, 3e-2];
@@ -241,6 +252,7 @@ export function synthesizeCase(plan: CorpusCasePlan): CorpusCase {
     label: {
       faults: plan.faults.map((f, i) => ({ ...f, size: result.faultSizes[i]! })),
       speedRpm: plan.speedRpm,
+      shaftSpeedsRpm: result.shaftSpeedsRpm,
       speedGiven: false,
     },
     draws: { ...result.draws, sensorNoiseRmsG: plan.noise.rmsG, sensorNoiseColour: plan.noise.colour, backgroundRmsG: plan.backgroundRmsG },

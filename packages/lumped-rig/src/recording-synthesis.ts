@@ -48,34 +48,43 @@ export interface SynthesisPlan {
 
 export interface SynthesisResult {
   recording: RigRecording;
+  /** True speed of every shaft (rpm), belt slip included. */
+  shaftSpeedsRpm: Record<string, number>;
   /** Physical size of each fault, in the order of `plan.faults`. */
   faultSizes: FaultSize[];
   /** The random nuisance parameters of this recording, for reports (never given to an analysis). */
   draws: Record<string, number | string>;
 }
 
-/** Range of the mount's natural frequency relative to running speed, per ISO foundation class (see synthesize). */
+/**
+ * The mount's natural frequency relative to running speed, per ISO foundation class: ISO 10816-3 calls a foundation
+ * rigid when the lowest natural frequency of machine and foundation lies at least 25 % above the running speed and
+ * flexible otherwise (from memory), so a rigid mount is drawn at 1.3-2.5 × the highest speed, a flexible one at
+ * 0.3-0.7 × the lowest. Its damping, 5-12 % of critical, is the usual range for bolted machines on steel or
+ * concrete (assumed).
+ */
 export const MOUNT_FREQUENCY_RATIO: Record<'rigid' | 'flexible', [number, number]> = { rigid: [1.3, 2.5], flexible: [0.3, 0.7] };
 export const MOUNT_DAMPING_RATIO: [number, number] = [0.05, 0.12];
+/**
+ * Local structural resonances (housing wall, pedestal, sensor mount): one to three per recording, anywhere from 0.1
+ * to 0.45 of the sample rate (a logger's useful band; a resonance above it would be filtered away), damping 2-10 %
+ * (lightly damped metal structures; common practice). Their weights are drawn and normalised.
+ */
+export const RESONANCE_COUNT: [number, number] = [1, 3];
 export const RESONANCE_FREQUENCY_FRACTION: [number, number] = [0.1, 0.45];
 export const RESONANCE_DAMPING_RATIO: [number, number] = [0.02, 0.1];
 /** The bearing-defect jitter of Antoni & Randall's model: 1-2 % of the period. */
 export const BEARING_JITTER_FRACTION: [number, number] = [0.01, 0.02];
-/** Scatter of the impact amplitudes A_i (relative standard deviation; assumed). */
+/** Scatter of the impact amplitudes A_i (relative standard deviation; assumed, the model leaves it open). */
 export const BEARING_AMPLITUDE_SCATTER = 0.15;
-/** Load distribution factor ε of the bearings (0.5: zero clearance; less with clearance). */
+/** Load distribution factor ε of the bearings: 0.5 for zero clearance (a 180° zone), less with clearance (Harris & Kotzalas; from memory). */
 export const LOAD_DISTRIBUTION_FACTOR: [number, number] = [0.3, 0.5];
+/** Angle of an outer-race defect from the load-zone centre: spalls start where the load is (assumed ±30°). */
+export const OUTER_RACE_DEFECT_ANGLE_RAD = Math.PI / 6;
 /** V-belt shaft load as a multiple of the effective pull (common practice: 1.5-2.5). */
 export const BELT_SHAFT_LOAD_FACTOR = 2;
 /** Parallel offset a healthy, well-aligned coupling keeps, mm (a good alignment job reaches a few hundredths; common practice). */
 export const HEALTHY_OFFSET_MM: [number, number] = [0.005, 0.02];
-/**
- * A loose housing sits on its pedestal or frame through a steel-on-steel joint: the contact is stiff (the housing
- * mass on it rings at a few hundred Hz; assumed), and the bolt head that stops a lift-off is stiffer still. The
- * foundation's own mount is left out in that case: the joint, not the springs, clips the response.
- */
-export const LOOSE_CONTACT_FREQUENCY_HZ: [number, number] = [300, 800];
-export const LOOSE_BOLT_STIFFNESS_RATIO: [number, number] = [2, 5];
 /**
  * Amplitude of the 1×, 2×, 3× misalignment reactions as fractions of the coupling's k·Δ (see shaft-forces.ts):
  * the angle-dependent part of a flexible coupling's stiffness is a modest fraction of its mean (assumed, 10-35 %),
@@ -85,6 +94,13 @@ export const MISALIGNMENT_SHARES: { radial: ReadonlyArray<readonly [number, numb
   radial: [[0.1, 0.25], [0.15, 0.35], [0.03, 0.1]],
   axial: [[0.15, 0.35], [0.1, 0.3], [0.02, 0.08]],
 };
+/**
+ * A loose housing sits on its pedestal or frame through a steel-on-steel joint: the contact is stiff (the housing
+ * mass on it rings at a few hundred Hz; assumed), and the bolt head that stops a lift-off is stiffer still (2-5 ×,
+ * assumed). The foundation's own mount is left out in that case: the joint, not the springs, clips the response.
+ */
+export const LOOSE_CONTACT_FREQUENCY_HZ: [number, number] = [300, 800];
+export const LOOSE_BOLT_STIFFNESS_RATIO: [number, number] = [2, 5];
 /** Longest run-in before the record starts, s (transients of the mount and the drive die out meanwhile). */
 export const MAX_RUN_IN_S = 1.5;
 
@@ -269,7 +285,7 @@ export function synthesizeRecording(plan: SynthesisPlan): SynthesisResult {
         spallLengthM: spallMm / 1000,
         jitterFraction: impactRandom.between(...BEARING_JITTER_FRACTION),
         amplitudeScatter: BEARING_AMPLITUDE_SCATTER,
-        defectAngleRad: impactRandom.between(-Math.PI / 6, Math.PI / 6),
+        defectAngleRad: impactRandom.between(-OUTER_RACE_DEFECT_ANGLE_RAD, OUTER_RACE_DEFECT_ANGLE_RAD),
         startAngleRad: impactRandom.between(0, 2 * Math.PI),
       },
       startS,
@@ -319,7 +335,7 @@ export function synthesizeRecording(plan: SynthesisPlan): SynthesisResult {
   }
 
   // --- Local resonances, background, anti-alias, noise -------------------------------------------
-  const resonanceCount = random.integer(1, 3);
+  const resonanceCount = random.integer(...RESONANCE_COUNT);
   const weights = Array.from({ length: resonanceCount }, () => random.between(0.2, 1));
   const weightSum = weights.reduce((s, x) => s + x, 0);
   const resonances: Resonance[] = weights.map((w, i) => {
@@ -367,6 +383,7 @@ export function synthesizeRecording(plan: SynthesisPlan): SynthesisResult {
         seed: String(plan.seed),
       },
     },
+    shaftSpeedsRpm: Object.fromEntries(Object.entries(speedsHz).map(([id, hz]) => [id, hz * 60])),
     faultSizes: faultSizes as FaultSize[],
     draws,
   };
