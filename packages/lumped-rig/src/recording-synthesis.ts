@@ -59,12 +59,14 @@ export interface SynthesisResult {
 /**
  * The mount's natural frequency relative to running speed, per ISO foundation class: ISO 10816-3 calls a foundation
  * rigid when the lowest natural frequency of machine and foundation lies at least 25 % above the running speed and
- * flexible otherwise (from memory), so a rigid mount is drawn at 1.3-2.5 × the highest speed, a flexible one at
- * 0.3-0.7 × the lowest. Its damping, 5-12 % of critical, is the usual range for bolted machines on steel or
- * concrete (assumed).
+ * flexible otherwise (from memory), so a flexible mount is drawn at 0.3-0.7 × the lowest speed and a rigid one
+ * at 2.5-5 × the highest: a bolted machine is also kept off its own 2× (where misalignment and transmission-error
+ * harmonics would otherwise ring the mount in a healthy machine; a design practice, assumed). Its damping, 8-20 %
+ * of critical: a machine on its foundation loses energy into the ground and the grout, more than a free structure
+ * (assumed).
  */
-export const MOUNT_FREQUENCY_RATIO: Record<'rigid' | 'flexible', [number, number]> = { rigid: [1.3, 2.5], flexible: [0.3, 0.7] };
-export const MOUNT_DAMPING_RATIO: [number, number] = [0.05, 0.12];
+export const MOUNT_FREQUENCY_RATIO: Record<'rigid' | 'flexible', [number, number]> = { rigid: [2.5, 5], flexible: [0.3, 0.7] };
+export const MOUNT_DAMPING_RATIO: [number, number] = [0.08, 0.2];
 /**
  * Local structural resonances (housing wall, pedestal, sensor mount): one to three per recording, anywhere from 0.1
  * to 0.45 of the sample rate (a logger's useful band; a resonance above it would be filtered away), damping 2-10 %

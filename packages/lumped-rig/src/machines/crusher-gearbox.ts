@@ -38,7 +38,7 @@ export const crusherGearbox: RigMachine = {
         { id: 'crusher-flywheel', shaft: 'output', kgM2: 180 },
       ],
       links: [
-        { id: 'motor-coupling', from: 'motor-rotor', to: 'hs-pinion', stiffnessNmPerRad: 65000 },
+        { id: 'motor-coupling', from: 'motor-rotor', to: 'hs-pinion', stiffnessNmPerRad: 300000 },
         { id: 'intermediate-shaft', from: 'hs-wheel', to: 'ls-pinion', diameterMm: 90, lengthMm: 260, shearModulusGPa: 79.3 },
         { id: 'crusher-coupling', from: 'ls-wheel', to: 'crusher-flywheel', stiffnessNmPerRad: 4500000 },
       ],

@@ -33,7 +33,7 @@ export const screenDrive: RigMachine = {
         { id: 'screen-shaft', shaft: 'output', kgM2: 6.5 },
       ],
       links: [
-        { id: 'jaw-coupling', from: 'motor-rotor', to: 'input-pinion', stiffnessNmPerRad: 28000 },
+        { id: 'jaw-coupling', from: 'motor-rotor', to: 'input-pinion', stiffnessNmPerRad: 120000 },
         { id: 'pin-coupling', from: 'output-wheel', to: 'screen-shaft', stiffnessNmPerRad: 420000 },
       ],
       couplings: [{ element: 'reducer-mesh', driverInertia: 'input-pinion', drivenInertia: 'output-wheel', stiffnessNmPerRad: 13500000 }],
