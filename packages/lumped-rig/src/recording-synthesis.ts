@@ -75,6 +75,12 @@ export const MOUNT_DAMPING_RATIO: [number, number] = [0.08, 0.2];
 export const RESONANCE_COUNT: [number, number] = [1, 3];
 export const RESONANCE_FREQUENCY_FRACTION: [number, number] = [0.1, 0.45];
 export const RESONANCE_DAMPING_RATIO: [number, number] = [0.02, 0.1];
+/**
+ * Modal mass of the local modes at a bearing (housing wall, pedestal), for impacts that strike them directly: a
+ * share of a housing of some tens of kg (assumed; with LOAD_MOMENTUM_SHARE in bearing-impacts.ts it sets the
+ * scale of the impact ringing).
+ */
+export const LOCAL_MODAL_MASS_KG: [number, number] = [20, 80];
 /** The bearing-defect jitter of Antoni & Randall's model: 1-2 % of the period. */
 export const BEARING_JITTER_FRACTION: [number, number] = [0.01, 0.02];
 /** Scatter of the impact amplitudes A_i (relative standard deviation; assumed, the model leaves it open). */
@@ -350,7 +356,11 @@ export function synthesizeRecording(plan: SynthesisPlan): SynthesisResult {
     draws[`resonance${i + 1}DampingRatio`] = r.dampingRatio;
     return r;
   });
-  const sensorAcceleration = resonanceResponse(housingAcceleration, stepS, startS, resonances, diracAreas(impulses, mount.housingMassKg));
+  // An impact strikes the housing wall itself: it rings each local mode as a force on that mode's own modal mass
+  // (ringing amplitude I·ω/m), while the housing as a whole only takes the velocity step I/M (added above).
+  const localModalMassKg = random.between(...LOCAL_MODAL_MASS_KG);
+  draws.localModalMassKg = localModalMassKg;
+  const sensorAcceleration = resonanceResponse(housingAcceleration, stepS, startS, resonances, diracAreas(impulses, localModalMassKg));
 
   if (plan.backgroundRmsG > 0) {
     const bgRandom = random.fork('background');

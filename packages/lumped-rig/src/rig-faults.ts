@@ -36,7 +36,7 @@ export interface FaultSize {
 
 /**
  * Ranges of each fault's physical size per severity (drawn uniformly). Reasons:
- * - unbalance: ISO 21940-11 grade G (mm/s) at the highest speed; healthy machines are drawn at G1-G4 (better than the
+ * - unbalance: ISO 21940-11 grade G (mm/s) at the highest speed; healthy machines are drawn at G1-G2.5 (better than the
  *   G6.3 a fan may be sold at), shallow G8-G16, clear G25-G60 (from memory of the grade table's steps);
  * - misalignment: parallel offset at the coupling; typical tolerances for 1500 rpm are about 0.1 mm (common practice,
  *   from memory), so 0.12-0.25 mm is a shallow and 0.4-0.8 mm a clear fault; healthy machines keep 0.005-0.02 mm;

@@ -14,8 +14,9 @@ import { ExactSdof } from './exact-sdof.js';
  *    amplified about Q_r = 1/(2ζ_r) around each, falling off above.
  *
  * Both stages are stepped exactly for forces linear between samples (ExactSdof), and impacts (force impulses at
- * any instant between samples) are added exactly as a velocity jump of the housing and, through its Dirac
- * acceleration I/M·δ(t − τ), as a jump of every resonator.
+ * any instant between samples) are added exactly: as a velocity jump I/M of the housing, and as a jump of every
+ * resonator, whose ringing then has the amplitude I·ω/m of a mode of modal mass m struck directly (the caller
+ * passes the impulses divided by that mass: `diracAreas`).
  */
 export interface Resonance {
   frequencyHz: number;
@@ -76,8 +77,8 @@ export function mountAcceleration(forceN: Float64Array, stepS: number, startS: n
 }
 
 /**
- * Sensor acceleration (m/s²) through the local resonances, from the housing acceleration samples and the
- * housing's Dirac accelerations (impulse / housing mass, m/s) at the impact instants.
+ * Sensor acceleration (m/s²) through the local resonances, from the housing acceleration samples and the Dirac
+ * accelerations (impulse / struck modal mass, m/s) at the impact instants.
  */
 export function resonanceResponse(housingAccelerationMPerS2: Float64Array, stepS: number, startS: number, resonances: readonly Resonance[], diracAreasMPerS: ImpulseTrain = NO_IMPULSES): Float64Array {
   if (resonances.length === 0) throw new RangeError('resonances must list at least one resonance');
@@ -106,7 +107,7 @@ export function resonanceResponse(housingAccelerationMPerS2: Float64Array, stepS
   return out;
 }
 
-/** The impulses of a train as Dirac housing accelerations: I/M, m/s. */
+/** The impulses of a train as Dirac accelerations of a mass: I/m, m/s. */
 export function diracAreas(impulses: ImpulseTrain, housingMassKg: number): ImpulseTrain {
   return { timeS: impulses.timeS, impulseNs: impulses.impulseNs.map((i) => i / housingMassKg) };
 }
