@@ -97,7 +97,7 @@ describe('synthesizeRecording', () => {
   });
 
   it('drops contact once per pinion turn with a missing spur tooth: the pinion-rate comb rises', () => {
-    const plan: SynthesisPlan = { machine: crusherGearbox, pointId: 'gearbox-intermediate-v', speedRpm: 900, sampleRateHz: 12_800, durationS: 2.5, faults: [], seed: 8, ...quiet };
+    const plan: SynthesisPlan = { machine: crusherGearbox, pointId: 'gearbox-intermediate-v', speedRpm: 900, sampleRateHz: 12_800, durationS: 1.5, faults: [], seed: 8, ...quiet };
     const healthy = synthesizeRecording(plan);
     const faulty = synthesizeRecording({ ...plan, faults: [{ fault: 'gear-missing-tooth', component: 'ls-pinion', severity: 'clear' }] });
     const fInter = (900 / 60) * (19 / 71);
