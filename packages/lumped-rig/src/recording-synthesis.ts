@@ -1,25 +1,19 @@
 import { decimate, TAPS_PER_FACTOR } from './anti-alias-decimator.js';
-import { bearingImpacts, type BearingDefectKind } from './bearing-impacts.js';
-import { assembleGearTrain } from './gear-train-assembly.js';
-import { gearTrainStepS, simulateGearTrain } from './gear-train.js';
+import { bearingFaultImpulses } from './bearing-fault-impulses.js';
 import { looseSupportAcceleration } from './loose-support.js';
-import { createRandom, type Random } from './random.js';
-import {
-  bearingTransmission,
-  casingTransmission,
-  CROSS_AXIS_SHARE,
-  findPoint,
-  isAxial,
-  pointBearing,
-  shaftOfGear,
-  shaftSpeedsHz,
-  shaftTransmission,
-  type RigMachine,
-} from './rig-machine.js';
-import { FAULT_SIZE_RANGES, LOOSENESS_HOLDING_FRACTION, isBearingFault, type FaultSize, type RigFault } from './rig-faults.js';
-import { harmonicForce, misalignmentHarmonics, unbalanceHarmonics, unbalanceKgM, type Harmonic } from './shaft-forces.js';
+import { addGearForces, addShaftHarmonics, gearTrainFor } from './point-forces.js';
+import { createRandom } from './random.js';
+import { findPoint, pointBearing, type RigMachine } from './rig-machine.js';
+import { FAULT_SIZE_RANGES, LOOSENESS_HOLDING_FRACTION, type FaultSize, type RigFault } from './rig-faults.js';
 import { sensorNoise, type NoiseColour } from './sensor-noise.js';
 import { diracAreas, mountAcceleration, resonanceResponse, type ImpulseTrain, type MountSpec, type Resonance } from './structural-path.js';
+import { drivePoint, type Grid, type SynthesisContext } from './synthesis-context.js';
+
+/**
+ * One recording, stage by stage: the drive's running point; the gear train integrated in time; the forces at the
+ * point's housing (gear bearing forces, shaft harmonics) and the bearing impacts; the housing on its mount (or
+ * loose); the local resonances and the broadband machine noise; the logger's anti-alias filter; the sensor noise.
+ */
 
 /** Standard gravity (m/s²), ISO 80000-3 / CGPM 1901: the accelerometer's g. */
 export const STANDARD_GRAVITY = 9.80665;
@@ -81,27 +75,6 @@ export const RESONANCE_DAMPING_RATIO: [number, number] = [0.02, 0.1];
  * scale of the impact ringing).
  */
 export const LOCAL_MODAL_MASS_KG: [number, number] = [20, 80];
-/** The bearing-defect jitter of Antoni & Randall's model: 1-2 % of the period. */
-export const BEARING_JITTER_FRACTION: [number, number] = [0.01, 0.02];
-/** Scatter of the impact amplitudes A_i (relative standard deviation; assumed, the model leaves it open). */
-export const BEARING_AMPLITUDE_SCATTER = 0.15;
-/** Load distribution factor ε of the bearings: 0.5 for zero clearance (a 180° zone), less with clearance (Harris & Kotzalas; from memory). */
-export const LOAD_DISTRIBUTION_FACTOR: [number, number] = [0.3, 0.5];
-/** Angle of an outer-race defect from the load-zone centre: spalls start where the load is (assumed ±30°). */
-export const OUTER_RACE_DEFECT_ANGLE_RAD = Math.PI / 6;
-/** V-belt shaft load as a multiple of the effective pull (common practice: 1.5-2.5). */
-export const BELT_SHAFT_LOAD_FACTOR = 2;
-/** Parallel offset a healthy, well-aligned coupling keeps, mm (a good alignment job reaches a few hundredths; common practice). */
-export const HEALTHY_OFFSET_MM: [number, number] = [0.005, 0.02];
-/**
- * Amplitude of the 1×, 2×, 3× misalignment reactions as fractions of the coupling's k·Δ (see shaft-forces.ts):
- * the angle-dependent part of a flexible coupling's stiffness is a modest fraction of its mean (assumed, 10-35 %),
- * with 2× the largest radially and the axial 1× and 2× high, the pattern common practice reads as misalignment.
- */
-export const MISALIGNMENT_SHARES: { radial: ReadonlyArray<readonly [number, number]>; axial: ReadonlyArray<readonly [number, number]> } = {
-  radial: [[0.1, 0.25], [0.15, 0.35], [0.03, 0.1]],
-  axial: [[0.15, 0.35], [0.1, 0.3], [0.02, 0.08]],
-};
 /**
  * A loose housing sits on its pedestal or frame through a steel-on-steel joint: the contact is stiff (the housing
  * mass on it rings at a few hundred Hz; assumed), and the bolt head that stops a lift-off is stiffer still (2-5 ×,
@@ -128,292 +101,138 @@ function checkPlan(plan: SynthesisPlan): void {
 export function synthesizeRecording(plan: SynthesisPlan): SynthesisResult {
   checkPlan(plan);
   const { machine, pointId, faults } = plan;
-  const model = machine.model;
   const random = createRandom(plan.seed);
   const draws: Record<string, number | string> = {};
-  const faultSizes: Array<FaultSize | undefined> = faults.map(() => undefined);
+  const drive = drivePoint(machine, plan.speedRpm, random, draws);
+  const mount = drawMount(machine, pointId, drive.minRpm, drive.maxRpm, random, draws);
+  const { assembled, factor } = gearTrainFor(machine, drive, faults, random.fork('gears'), plan.sampleRateHz);
+  const outputCount = Math.max(1, Math.round(plan.durationS * plan.sampleRateHz));
+  const grid = makeGrid(plan.sampleRateHz, factor, outputCount, mount);
+  draws.internalRateHz = factor * plan.sampleRateHz;
+  draws.runInS = grid.preCount * grid.stepS;
+  const ctx: SynthesisContext = { machine, pointId, faults, random, draws, faultSizes: faults.map(() => undefined), drive, grid };
+  if (assembled !== null) for (const [i, size] of assembled.faultSizes) ctx.faultSizes[i] = size;
 
-  // --- Speeds and load -------------------------------------------------------------------------
-  const beltSlip = machine.beltSlipPercentRange ? random.between(...machine.beltSlipPercentRange) : 0;
-  if (machine.beltSlipPercentRange) draws.beltSlipPercent = beltSlip;
-  const speedsHz = shaftSpeedsHz(machine, plan.speedRpm, beltSlip);
-  const maxRpm = model.speed.maxRpm ?? model.speed.nominalRpm;
-  const minRpm = model.speed.minRpm ?? model.speed.nominalRpm;
-  const ratedOmega = (model.speed.nominalRpm * 2 * Math.PI) / 60;
-  const ratedTorque = (machine.drive.ratedPowerKw * 1000) / ratedOmega;
-  const loadFraction = random.between(...machine.drive.loadFractionRange);
-  draws.loadFraction = loadFraction;
-  const speedRatio = plan.speedRpm / maxRpm;
-  // Fan loads follow the affinity law, torque ∝ speed² (common practice); the others hold their torque.
-  const motorTorque = ratedTorque * loadFraction * (machine.drive.loadLaw === 'fan' ? speedRatio * speedRatio : 1);
-  const motorShaft = model.motor?.shaft ?? model.speed.shaft;
-  const motorOmega = 2 * Math.PI * speedsHz[motorShaft]!;
-  const poles = model.motor?.poles ?? 4;
-  // Supply frequency of the motor (a variable-speed drive sets it): f = (p/2)·f_rotor/(1 − s) at the running slip.
-  const runningSlip = machine.drive.ratedSlip * (motorTorque / ratedTorque);
-  const supplyHz = ((poles / 2) * speedsHz[motorShaft]!) / (1 - runningSlip);
+  const force = new Float64Array(grid.count);
+  if (assembled !== null) addGearForces(ctx, assembled, force);
+  const oneTimesN = addShaftHarmonics(ctx, force);
+  const impulses = bearingFaultImpulses(ctx, assembled?.geometries ?? []);
+  const housing = housingAcceleration(ctx, mount, force, impulses, oneTimesN);
+  const samples = sensorChain(ctx, plan, housing, impulses, outputCount);
 
-  // --- Grid --------------------------------------------------------------------------------------
-  const fs = plan.sampleRateHz;
-  const outputCount = Math.max(1, Math.round(plan.durationS * fs));
-  const foundation = model.iso?.foundation ?? 'rigid';
+  faults.forEach((f, i) => {
+    if (ctx.faultSizes[i] === undefined) throw new RangeError(`fault ${f.fault} at ${f.component} does not fit ${machine.model.id} at point ${pointId}`);
+  });
+  const point = findPoint(machine, pointId);
+  return {
+    recording: {
+      sampleRateHz: plan.sampleRateHz,
+      channels: [{ name: pointId, unit: point.unit ?? 'g', samples }],
+      metadata: {
+        source: '@kinespec/lumped-rig',
+        machine: machine.model.id,
+        point: pointId,
+        sampleRateHz: String(plan.sampleRateHz),
+        durationS: String(outputCount / plan.sampleRateHz),
+        seed: String(plan.seed),
+      },
+    },
+    shaftSpeedsRpm: Object.fromEntries(Object.entries(drive.speedsHz).map(([id, hz]) => [id, hz * 60])),
+    faultSizes: ctx.faultSizes as FaultSize[],
+    draws,
+  };
+}
+
+/** The housing's mount at this point, on the side of the running speed its ISO foundation class calls for. */
+function drawMount(machine: RigMachine, pointId: string, minRpm: number, maxRpm: number, random: SynthesisContext['random'], draws: SynthesisContext['draws']): MountSpec {
+  const foundation = machine.model.iso?.foundation ?? 'rigid';
   const referenceHz = foundation === 'rigid' ? maxRpm / 60 : minRpm / 60;
   const mount: MountSpec = {
     housingMassKg: machine.pointHousingMassKg[pointId] ?? 100,
-    // ISO 10816-3 calls a foundation rigid when the lowest natural frequency of machine and foundation is at least
-    // 25 % above the running speed, flexible otherwise (from memory); the mount is drawn on the matching side.
     frequencyHz: referenceHz * random.between(...MOUNT_FREQUENCY_RATIO[foundation]),
     dampingRatio: random.between(...MOUNT_DAMPING_RATIO),
   };
   draws.mountFrequencyHz = mount.frequencyHz;
   draws.mountDampingRatio = mount.dampingRatio;
+  return mount;
+}
 
-  let gearRun: ReturnType<typeof simulateGearTrain> | null = null;
-  let factor = 2; // at least twice the output rate, so that the anti-alias filter has something to remove
-  let assembled: ReturnType<typeof assembleGearTrain> | null = null;
-  if (machine.gearStages.length > 0) {
-    const outputOmega = 2 * Math.PI * speedsHz[shaftOfGear(machine, machine.gearStages[machine.gearStages.length - 1]!.wheelId)]!;
-    const syncOmega = (2 * Math.PI * supplyHz) / (poles / 2);
-    const motorSlope = ratedTorque / (machine.drive.ratedSlip * syncOmega);
-    const loadTorque = motorTorque * (motorOmega / outputOmega);
-    const loadSlope = machine.drive.loadLaw === 'fan' ? (2 * loadTorque) / outputOmega : 0;
-    assembled = assembleGearTrain(machine, { inputSpeedRadPerS: motorOmega, motorTorqueNm: motorTorque, motorTorqueSlopeNmsPerRad: motorSlope, loadTorqueSlopeNmsPerRad: loadSlope }, faults, random.fork('gears'));
-    for (const [i, size] of assembled.faultSizes) faultSizes[i] = size;
-    const maxStep = gearTrainStepS(assembled.spec);
-    factor = Math.max(2, Math.ceil(1 / (maxStep * fs)));
-  }
-  const stepS = 1 / (factor * fs);
+/**
+ * The integration grid: `factor` samples per output sample, a run-in of four time constants of the mount
+ * (4/(ζω), at least 0.05 s, at most MAX_RUN_IN_S) and the anti-alias filter's half length on both sides.
+ */
+function makeGrid(sampleRateHz: number, factor: number, outputCount: number, mount: MountSpec): Grid {
+  const stepS = 1 / (factor * sampleRateHz);
   const half = (TAPS_PER_FACTOR * factor) / 2;
   const runInS = Math.min(MAX_RUN_IN_S, Math.max(0.05, 4 / (2 * Math.PI * mount.frequencyHz * mount.dampingRatio)));
   const preCount = Math.ceil(runInS / stepS) + half;
-  const internalCount = preCount + (outputCount - 1) * factor + 1 + half;
-  const startS = -preCount * stepS;
-  draws.internalRateHz = factor * fs;
-  draws.runInS = preCount * stepS;
+  return { stepS, startS: -preCount * stepS, count: preCount + (outputCount - 1) * factor + 1 + half, preCount, factor };
+}
 
-  // --- Forces at the point -----------------------------------------------------------------------
-  const axial = isAxial(machine, pointId);
-  const radialShare = axial ? CROSS_AXIS_SHARE : 1;
-  const force = new Float64Array(internalCount);
-  const pointShaft = pointBearing(machine, pointId).shaft;
+/** The housing's acceleration: on its linear mount, or, with a looseness fault on the point's shaft, loose. */
+function housingAcceleration(ctx: SynthesisContext, mount: MountSpec, force: Float64Array, impulses: ImpulseTrain, oneTimesN: number): Float64Array {
+  const { faults, random, draws, grid } = ctx;
+  const pointShaft = pointBearing(ctx.machine, ctx.pointId).shaft;
+  const fault = faults.findIndex((f) => f.fault === 'looseness' && f.component === pointShaft);
+  if (fault < 0) return mountAcceleration(force, grid.stepS, grid.startS, mount, impulses);
+  const severity = faults[fault]!.severity;
+  const range = FAULT_SIZE_RANGES.looseness;
+  const gapMm = random.between(...range[severity]);
+  ctx.faultSizes[fault] = { quantity: range.quantity, value: gapMm, unit: range.unit };
+  const holdingForceN = oneTimesN * random.between(...LOOSENESS_HOLDING_FRACTION[severity]);
+  const contactHz = random.between(...LOOSE_CONTACT_FREQUENCY_HZ);
+  const contactStiffness = mount.housingMassKg * (2 * Math.PI * contactHz) ** 2;
+  const boltStiffness = contactStiffness * random.between(...LOOSE_BOLT_STIFFNESS_RATIO);
+  draws.looseContactHz = contactHz;
+  draws.looseHoldingForceN = holdingForceN;
+  // The steady part of the bearing force only shifts the rest position; what clamps the housing is W.
+  let mean = 0;
+  for (let k = 0; k < grid.count; k++) mean += force[k]!;
+  mean /= grid.count;
+  const dynamic = force.map((f) => f - mean);
+  return looseSupportAcceleration(dynamic, grid.stepS, grid.startS, {
+    housingMassKg: mount.housingMassKg,
+    contactStiffnessNPerM: contactStiffness,
+    contactDampingNsPerM: 2 * mount.dampingRatio * Math.sqrt(contactStiffness * mount.housingMassKg),
+    boltStiffnessNPerM: boltStiffness,
+    boltDampingNsPerM: 2 * mount.dampingRatio * Math.sqrt(boltStiffness * mount.housingMassKg),
+    gapM: gapMm / 1000,
+    holdingForceN,
+  }, impulses);
+}
 
-  if (assembled !== null) {
-    gearRun = simulateGearTrain(assembled.spec, stepS, internalCount);
-    machine.gearStages.forEach((st, i) => {
-      const pinionW = shaftTransmission(machine, pointId, shaftOfGear(machine, st.pinionId)) * radialShare;
-      const wheelW = shaftTransmission(machine, pointId, shaftOfGear(machine, st.wheelId)) * radialShare;
-      const pinionF = gearRun!.bearingForceN[2 * i]!;
-      const wheelF = gearRun!.bearingForceN[2 * i + 1]!;
-      for (let k = 0; k < internalCount; k++) force[k] = force[k]! + pinionW * pinionF[k]! + wheelW * wheelF[k]!;
-      if (axial) {
-        // Helical teeth push axially with tan βb of the transverse force, on both gears of the stage.
-        const tanB = Math.tan(assembled!.geometries[i]!.baseHelixAngleRad);
-        const w = Math.max(shaftTransmission(machine, pointId, shaftOfGear(machine, st.pinionId)), shaftTransmission(machine, pointId, shaftOfGear(machine, st.wheelId)));
-        const mf = gearRun!.meshForceN[i]!;
-        if (tanB > 0) for (let k = 0; k < internalCount; k++) force[k] = force[k]! + w * tanB * mf[k]!;
-      }
-    });
-  }
-
-  // Shaft harmonics: residual or faulty unbalance and misalignment on every shaft, blade pass, magnetic pull.
-  const oneTimesAtPoint: number[] = [];
-  for (const shaft of model.shafts) {
-    const data = machine.shafts[shaft.id];
-    if (data === undefined) throw new RangeError(`${model.id}: shaft ${shaft.id} has no rig data`);
-    const fHz = speedsHz[shaft.id]!;
-    const w = shaftTransmission(machine, pointId, shaft.id);
-    const rotorIds = model.rotors.filter((r) => r.shaft === shaft.id).map((r) => r.id);
-    const unbalanceFault = faults.findIndex((f) => f.fault === 'unbalance' && (f.component === shaft.id || rotorIds.includes(f.component)));
-    let grade = random.between(...data.healthyBalanceGradeRange);
-    if (unbalanceFault >= 0) {
-      const range = FAULT_SIZE_RANGES.unbalance;
-      grade = random.between(...range[faults[unbalanceFault]!.severity]);
-      faultSizes[unbalanceFault] = { quantity: range.quantity, value: grade, unit: range.unit };
-    }
-    // The grade holds at this shaft's highest speed; at any other speed the same unbalance pulls with U·Ω².
-    const shaftMaxOmega = 2 * Math.PI * fHz * (maxRpm / plan.speedRpm);
-    const U = unbalanceKgM(data.rotorMassKg, grade, shaftMaxOmega);
-    const harmonics: Harmonic[] = unbalanceHarmonics(U, fHz, random.between(0, 2 * Math.PI)).map((h) => ({ ...h, amplitudeN: h.amplitudeN * w * radialShare }));
-    if (shaft.id === pointShaft) oneTimesAtPoint.push(harmonics[0]!.amplitudeN);
-    const coupling = machine.couplings.find((c) => c.shaft === shaft.id);
-    if (coupling !== undefined) {
-      const misalignmentFault = faults.findIndex((f) => f.fault === 'misalignment' && f.component === shaft.id);
-      let offsetMm = random.between(...HEALTHY_OFFSET_MM);
-      if (misalignmentFault >= 0) {
-        const range = FAULT_SIZE_RANGES.misalignment;
-        offsetMm = random.between(...range[faults[misalignmentFault]!.severity]);
-        faultSizes[misalignmentFault] = { quantity: range.quantity, value: offsetMm, unit: range.unit };
-      }
-      const draw = (r: readonly [number, number]) => random.between(r[0], r[1]);
-      const shares = {
-        radial: MISALIGNMENT_SHARES.radial.map(draw) as [number, number, number],
-        axial: MISALIGNMENT_SHARES.axial.map(draw) as [number, number, number],
-      };
-      const phases = Array.from({ length: 6 }, () => random.between(0, 2 * Math.PI));
-      const mis = misalignmentHarmonics(coupling.radialStiffnessNPerM, offsetMm / 1000, shares, phases);
-      for (const h of mis.radial) harmonics.push({ ...h, amplitudeN: h.amplitudeN * w * radialShare });
-      if (axial) for (const h of mis.axial) harmonics.push({ ...h, amplitudeN: h.amplitudeN * w });
-    }
-    if (machine.bladePass !== undefined && rotorIds.includes(machine.bladePass.rotorId)) {
-      const blades = model.rotors.find((r) => r.id === machine.bladePass!.rotorId)!.blades;
-      const scale = (plan.speedRpm / maxRpm) ** 2;
-      harmonics.push({ order: blades, amplitudeN: machine.bladePass.forceAtMaxSpeedN * scale * w * radialShare, phaseRad: random.between(0, 2 * Math.PI) });
-      harmonics.push({ order: 2 * blades, amplitudeN: 0.3 * machine.bladePass.forceAtMaxSpeedN * scale * w * radialShare, phaseRad: random.between(0, 2 * Math.PI) });
-    }
-    if (shaft.id === motorShaft) {
-      // Radial magnetic pull at twice the supply frequency, written as an order of this shaft.
-      const wm = casingTransmission(machine, pointId, machine.drive.motorCasing);
-      harmonics.push({ order: (2 * supplyHz) / fHz, amplitudeN: machine.drive.magneticForceN * wm * radialShare, phaseRad: random.between(0, 2 * Math.PI) });
-    }
-    harmonicForce(harmonics, fHz, startS, stepS, internalCount, force);
-  }
-
-  // --- Bearing impacts ---------------------------------------------------------------------------
-  const impulseTimes: number[] = [];
-  const impulseSizes: number[] = [];
-  const impactRandom = random.fork('bearings');
-  faults.forEach((f, fi) => {
-    if (!isBearingFault(f.fault)) return;
-    const bearing = model.bearings.find((b) => b.id === f.component);
-    const data = machine.bearings[f.component];
-    if (bearing === undefined || data === undefined) throw new RangeError(`${model.id}: bearing ${f.component} is unknown to the rig`);
-    const range = FAULT_SIZE_RANGES[f.fault];
-    const spallMm = impactRandom.between(...range[f.severity]);
-    faultSizes[fi] = { quantity: range.quantity, value: spallMm, unit: range.unit };
-    const radialLoadN = data.weightLoadN + data.transmissionShare * transmissionForceN(machine, data.transmissionElement, motorTorque, assembled?.geometries ?? []);
-    const kind: BearingDefectKind = f.fault === 'bearing-outer-race' ? 'outer-race' : f.fault === 'bearing-inner-race' ? 'inner-race' : 'rolling-element';
-    const train = bearingImpacts(
-      {
-        kind,
-        geometry: bearing,
-        shaftSpeedHz: speedsHz[bearing.shaft]!,
-        elementKind: data.elementKind,
-        radialLoadN,
-        loadDistributionFactor: impactRandom.between(...LOAD_DISTRIBUTION_FACTOR),
-        spallLengthM: spallMm / 1000,
-        jitterFraction: impactRandom.between(...BEARING_JITTER_FRACTION),
-        amplitudeScatter: BEARING_AMPLITUDE_SCATTER,
-        defectAngleRad: impactRandom.between(-OUTER_RACE_DEFECT_ANGLE_RAD, OUTER_RACE_DEFECT_ANGLE_RAD),
-        startAngleRad: impactRandom.between(0, 2 * Math.PI),
-      },
-      startS,
-      startS + internalCount * stepS,
-      impactRandom,
-    );
-    const w = bearingTransmission(machine, pointId, bearing.id) * radialShare;
-    for (let i = 0; i < train.timeS.length; i++) {
-      impulseTimes.push(train.timeS[i]!);
-      impulseSizes.push(train.impulseNs[i]! * w);
-    }
-  });
-  const order = impulseTimes.map((_, i) => i).sort((a, b) => impulseTimes[a]! - impulseTimes[b]!);
-  const impulses: ImpulseTrain = { timeS: Float64Array.from(order.map((i) => impulseTimes[i]!)), impulseNs: Float64Array.from(order.map((i) => impulseSizes[i]!)) };
-
-  // --- Housing on its mount (linear, or loose) ---------------------------------------------------
-  const loosenessFault = faults.findIndex((f) => f.fault === 'looseness' && f.component === pointShaft);
-  let housingAcceleration: Float64Array;
-  if (loosenessFault >= 0) {
-    const severity = faults[loosenessFault]!.severity;
-    const range = FAULT_SIZE_RANGES.looseness;
-    const gapMm = random.between(...range[severity]);
-    faultSizes[loosenessFault] = { quantity: range.quantity, value: gapMm, unit: range.unit };
-    const oneTimes = oneTimesAtPoint.reduce((s, x) => s + x, 0);
-    const holdingForceN = oneTimes * random.between(...LOOSENESS_HOLDING_FRACTION[severity]);
-    const contactHz = random.between(...LOOSE_CONTACT_FREQUENCY_HZ);
-    const contactStiffness = mount.housingMassKg * (2 * Math.PI * contactHz) ** 2;
-    const boltStiffness = contactStiffness * random.between(...LOOSE_BOLT_STIFFNESS_RATIO);
-    draws.looseContactHz = contactHz;
-    // The steady part of the bearing force only shifts the rest position; what clamps the housing is W.
-    let mean = 0;
-    for (let k = 0; k < internalCount; k++) mean += force[k]!;
-    mean /= internalCount;
-    for (let k = 0; k < internalCount; k++) force[k] = force[k]! - mean;
-    housingAcceleration = looseSupportAcceleration(force, stepS, startS, {
-      housingMassKg: mount.housingMassKg,
-      contactStiffnessNPerM: contactStiffness,
-      contactDampingNsPerM: 2 * mount.dampingRatio * Math.sqrt(contactStiffness * mount.housingMassKg),
-      boltStiffnessNPerM: boltStiffness,
-      boltDampingNsPerM: 2 * mount.dampingRatio * Math.sqrt(boltStiffness * mount.housingMassKg),
-      gapM: gapMm / 1000,
-      holdingForceN,
-    }, impulses);
-    draws.looseHoldingForceN = holdingForceN;
-  } else {
-    housingAcceleration = mountAcceleration(force, stepS, startS, mount, impulses);
-  }
-
-  // --- Local resonances, background, anti-alias, noise -------------------------------------------
+/** Local resonances (with the impacts striking them and the broadband machine noise), anti-alias, sensor noise; in g. */
+function sensorChain(ctx: SynthesisContext, plan: SynthesisPlan, housing: Float64Array, impulses: ImpulseTrain, outputCount: number): Float64Array {
+  const { random, draws, grid } = ctx;
+  const fs = plan.sampleRateHz;
   const resonanceCount = random.integer(...RESONANCE_COUNT);
   const weights = Array.from({ length: resonanceCount }, () => random.between(0.2, 1));
   const weightSum = weights.reduce((s, x) => s + x, 0);
   const resonances: Resonance[] = weights.map((w, i) => {
-    const r = {
-      frequencyHz: fs * random.between(...RESONANCE_FREQUENCY_FRACTION),
-      dampingRatio: random.between(...RESONANCE_DAMPING_RATIO),
-      weight: w / weightSum,
-    };
+    const r = { frequencyHz: fs * random.between(...RESONANCE_FREQUENCY_FRACTION), dampingRatio: random.between(...RESONANCE_DAMPING_RATIO), weight: w / weightSum };
     draws[`resonance${i + 1}Hz`] = r.frequencyHz;
     draws[`resonance${i + 1}DampingRatio`] = r.dampingRatio;
     return r;
   });
   // An impact strikes the housing wall itself: it rings each local mode as a force on that mode's own modal mass
-  // (ringing amplitude I·ω/m), while the housing as a whole only takes the velocity step I/M (added above).
+  // (ringing amplitude I·ω/m), while the housing as a whole only takes the velocity step I/M (in the mount).
   const localModalMassKg = random.between(...LOCAL_MODAL_MASS_KG);
   draws.localModalMassKg = localModalMassKg;
-  const sensorAcceleration = resonanceResponse(housingAcceleration, stepS, startS, resonances, diracAreas(impulses, localModalMassKg));
-
+  const sensor = resonanceResponse(housing, grid.stepS, grid.startS, resonances, diracAreas(impulses, localModalMassKg));
   if (plan.backgroundRmsG > 0) {
+    // Broadband machine noise: white force noise through the same resonances, scaled to its drawn r.m.s.
     const bgRandom = random.fork('background');
-    const white = new Float64Array(internalCount);
-    for (let k = 0; k < internalCount; k++) white[k] = bgRandom.normal();
-    const background = resonanceResponse(white, stepS, startS, resonances);
+    const white = new Float64Array(grid.count);
+    for (let k = 0; k < grid.count; k++) white[k] = bgRandom.normal();
+    const background = resonanceResponse(white, grid.stepS, grid.startS, resonances);
     let ss = 0;
-    for (let k = preCount; k < internalCount; k++) ss += background[k]! * background[k]!;
-    const scale = (plan.backgroundRmsG * STANDARD_GRAVITY) / Math.sqrt(ss / (internalCount - preCount));
-    for (let k = 0; k < internalCount; k++) sensorAcceleration[k] = sensorAcceleration[k]! + scale * background[k]!;
+    for (let k = grid.preCount; k < grid.count; k++) ss += background[k]! * background[k]!;
+    const scale = (plan.backgroundRmsG * STANDARD_GRAVITY) / Math.sqrt(ss / (grid.count - grid.preCount));
+    for (let k = 0; k < grid.count; k++) sensor[k] = sensor[k]! + scale * background[k]!;
   }
-
-  const decimated = decimate(sensorAcceleration, factor, preCount, outputCount);
+  const decimated = decimate(sensor, grid.factor, grid.preCount, outputCount);
   const noise = sensorNoise(random.fork('sensor'), outputCount, fs, plan.noise.rmsG, plan.noise.colour);
   const samples = new Float64Array(outputCount);
   for (let m = 0; m < outputCount; m++) samples[m] = decimated[m]! / STANDARD_GRAVITY + noise[m]!;
-
-  for (let i = 0; i < faults.length; i++) {
-    if (faultSizes[i] === undefined) throw new RangeError(`fault ${faults[i]!.fault} at ${faults[i]!.component} does not fit ${model.id} at point ${pointId}`);
-  }
-  const point = findPoint(machine, pointId);
-  return {
-    recording: {
-      sampleRateHz: fs,
-      channels: [{ name: pointId, unit: point.unit ?? 'g', samples }],
-      metadata: {
-        source: '@kinespec/lumped-rig',
-        machine: model.id,
-        point: pointId,
-        sampleRateHz: String(fs),
-        durationS: String(outputCount / fs),
-        seed: String(plan.seed),
-      },
-    },
-    shaftSpeedsRpm: Object.fromEntries(Object.entries(speedsHz).map(([id, hz]) => [id, hz * 60])),
-    faultSizes: faultSizes as FaultSize[],
-    draws,
-  };
-}
-
-/**
- * The force a bearing shares: the tooth force of its gear stage, F = T/r_b at the stage's pinion torque, or a belt's
- * shaft load (BELT_SHAFT_LOAD_FACTOR × the effective pull T/r of the driver sheave).
- */
-function transmissionForceN(machine: RigMachine, element: string | undefined, motorTorqueNm: number, geometries: readonly { baseRadiusPinionM: number }[]): number {
-  if (element === undefined) return 0;
-  let torque = motorTorqueNm;
-  for (let i = 0; i < machine.gearStages.length; i++) {
-    const st = machine.gearStages[i]!;
-    if (st.meshId === element) return torque / geometries[i]!.baseRadiusPinionM;
-    torque = (torque * st.wheelTeeth) / st.pinionTeeth;
-  }
-  const belt = machine.model.belts.find((b) => b.id === element);
-  if (belt !== undefined) return (BELT_SHAFT_LOAD_FACTOR * motorTorqueNm) / (belt.driver.pitchDiameterMm / 2000);
-  throw new RangeError(`${machine.model.id}: transmission element ${element} is neither a gear mesh nor a belt`);
+  return samples;
 }

@@ -69,10 +69,6 @@ export const FAULT_SIZE_RANGES: Record<RigFaultKind, { quantity: string; unit: s
 /** Held-down fraction of the 1× force for looseness, per severity (see FAULT_SIZE_RANGES). */
 export const LOOSENESS_HOLDING_FRACTION: Record<RigSeverity, [number, number]> = { shallow: [0.6, 0.85], clear: [0.15, 0.45] };
 
-export function isGearToothFault(kind: RigFaultKind): boolean {
-  return kind === 'gear-missing-tooth' || kind === 'gear-broken-tooth';
-}
-
 export function isBearingFault(kind: RigFaultKind): kind is 'bearing-outer-race' | 'bearing-inner-race' | 'bearing-rolling-element' {
   return kind === 'bearing-outer-race' || kind === 'bearing-inner-race' || kind === 'bearing-rolling-element';
 }

@@ -11,7 +11,7 @@ export interface Harmonic {
 }
 
 /** Σ A_h cos(2π h f t + φ_h) sampled at t = startS + k·stepS. */
-export function harmonicForce(harmonics: readonly Harmonic[], shaftSpeedHz: number, startS: number, stepS: number, count: number, out = new Float64Array(count)): Float64Array {
+export function harmonicForce(harmonics: readonly Harmonic[], shaftSpeedHz: number, startS: number, stepS: number, count: number, out: Float64Array = new Float64Array(count)): Float64Array {
   for (const h of harmonics) {
     const w = 2 * Math.PI * h.order * shaftSpeedHz;
     // Rotate a phasor instead of calling cos per sample; renormalised each 1024 samples against rounding drift.
