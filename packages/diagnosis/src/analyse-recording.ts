@@ -1,4 +1,5 @@
 import {
+  pointUnit,
   speedRangeRpm,
   shaftRatios,
   type MachineModel,
@@ -33,7 +34,8 @@ import { evidenceOf, scoreCandidates, type Candidate } from './hypothesis-score.
 import { gradeSeverity, isoBandHz } from './iso-zones.js';
 import { lineToleranceHz, matchableSpectrum, matchLine, peakAt, strongPeaks, type LineMatch, type MatchableSpectrum } from './line-matching.js';
 import { angleSpectra, type AngleSpectra } from './order-tracking.js';
-import { gearSynchronousAverages, gearTsaIndicators, type GearTsa } from './gear-tsa.js';
+import { gearSynchronousAverages, type GearTsa } from './gear-tsa.js';
+import { indicatorsOf } from './indicators/indicator-registry.js';
 import { reasonFor } from './reason.js';
 import type { Hypothesis, RecordingAnalysis, SpeedSource } from './recording-analysis.js';
 import { speedFromSpectrum } from './running-speed.js';
@@ -254,29 +256,28 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   lap('unexplained peaks');
   const maxPlotPoints = options.maxPlotPoints ?? 2048;
   const plot = downsampleForPlot(spectrum, maxPlotPoints);
-  const indicators: Record<string, number> = {
-    velocity_rms_mm_per_s: velocityRmsMmPerS,
-    acceleration_peak: time.peak,
-    acceleration_rms: time.rms,
-    crest_factor: time.crestFactor,
-    kurtosis: time.kurtosis,
-  };
-  if (speedHz !== null) indicators.speed_rpm = speedHz * 60;
-  let envelopeRms: number | undefined;
-  if (envelope) {
-    envelopeRms = bandRms(envelope.spectrum, [envelope.spectrum.frequencyResolutionHz, envelope.spectrum.frequenciesHz[envelope.spectrum.frequenciesHz.length - 1]!]);
-    indicators.envelope_rms = envelopeRms;
-    if (envelope.band.kurtosis !== undefined) indicators.kurtogram_kurtosis = envelope.band.kurtosis;
-  }
-  for (const h of hypotheses) indicators[`score:${h.fault}:${h.component}`] = h.score;
   // With the shaft angle known, every gear's synchronous average and its FM0/FM4/NA4 (trended by the service).
   let gearTsa: GearTsa[] | undefined;
   if (angle && model && model.gearMeshes.length > 0) {
     const ratioOf = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
     gearTsa = gearSynchronousAverages(samples, fs, angle.shaftAngle, model, (shaft) => ratioOf.get(shaft)!);
-    Object.assign(indicators, gearTsaIndicators(gearTsa));
     lap('gear synchronous averages');
   }
+  // Trend indicators: read from the registry (indicators/indicator-registry.ts), in the units it gives at this point.
+  const { values: indicators, units: indicatorUnits } = indicatorsOf(
+    {
+      time,
+      accelerationUnit: acceleration.unit,
+      // a displacement channel is not integrated to velocity here: no overall velocity to trend
+      velocityRmsMmPerS: velocitySpectrum ? velocityRmsMmPerS : null,
+      speedHz,
+      envelope: envelope ? { squaredEnvelope: envelope.squaredEnvelope, unit, kurtogramKurtosis: envelope.band.kurtosis } : null,
+      hypotheses,
+      gearTsa: gearTsa ?? null,
+    },
+    { unit: point ? pointUnit(point) : unit },
+  );
+  const envelopeRms = indicators.envelope_rms;
 
   const analysis: RecordingAnalysis = {
     softwareVersion: SOFTWARE_VERSION,
@@ -298,6 +299,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
       tripLevelMmPerS: severity.tripLevelMmPerS,
     },
     indicators,
+    indicatorUnits,
     spectrum: {
       quantity,
       unit,
@@ -343,17 +345,17 @@ function stageClock(into: Record<string, number> | undefined): (stage: string) =
 }
 
 /** The PSD of a velocity channel's spectrum in (mm/s)²/Hz: one scaling pass, one unit factor. */
-function velocityPsdMmPerS(spectrum: Spectrum, unit: string): Spectrum {
+export function velocityPsdMmPerS(spectrum: Spectrum, unit: string): Spectrum {
   const psd = withScaling(spectrum, 'psd');
   const squaredFactor = convertUnit(1, unit, 'mm/s') ** 2;
   return { ...psd, values: psd.values.map((v) => v * squaredFactor), unit: 'mm/s' };
 }
 
-function defaultUnit(quantity: 'acceleration' | 'velocity' | 'displacement'): string {
+export function defaultUnit(quantity: 'acceleration' | 'velocity' | 'displacement'): string {
   return quantity === 'acceleration' ? 'g' : quantity === 'velocity' ? 'mm/s' : 'um';
 }
 
-function tachChannelOf(recording: Recording, model: MachineModel | null, options: AnalyseOptions): number | null {
+export function tachChannelOf(recording: Recording, model: MachineModel | null, options: AnalyseOptions): number | null {
   const n = recording.channels.length;
   if (options.tachChannel !== undefined) {
     if (!(Number.isInteger(options.tachChannel) && options.tachChannel >= 0 && options.tachChannel < n)) {
@@ -373,7 +375,7 @@ function tachChannelOf(recording: Recording, model: MachineModel | null, options
   return null;
 }
 
-function vibrationChannelOf(recording: Recording, channel: number | undefined, tachIndex: number | null): number {
+export function vibrationChannelOf(recording: Recording, channel: number | undefined, tachIndex: number | null): number {
   const n = recording.channels.length;
   if (channel !== undefined) {
     if (!(Number.isInteger(channel) && channel >= 0 && channel < n)) {
@@ -389,7 +391,7 @@ function vibrationChannelOf(recording: Recording, channel: number | undefined, t
   return j;
 }
 
-function pointOf(model: MachineModel | null, pointId: string | undefined, channelName: string, warnings: string[]): Point | null {
+export function pointOf(model: MachineModel | null, pointId: string | undefined, channelName: string, warnings: string[]): Point | null {
   if (!model) return null;
   const vibration = model.points.filter((p) => p.quantity !== 'tach' && p.quantity !== 'encoder');
   if (pointId !== undefined) {
@@ -410,7 +412,7 @@ function pointOf(model: MachineModel | null, pointId: string | undefined, channe
  * 0.5 Hz (so that twice line frequency and twice running speed of a two-pole motor, about 1 Hz apart, separate),
  * 4096..65536 samples, at most half the record (at least three averages with 50 % overlap).
  */
-function chooseSegmentLength(length: number, sampleRateHz: number, slowestShaftHz: number | null): number {
+export function chooseSegmentLength(length: number, sampleRateHz: number, slowestShaftHz: number | null): number {
   let largest = 1;
   while (largest * 2 <= length) largest *= 2;
   const cap = largest >= 16384 ? largest / 2 : largest;

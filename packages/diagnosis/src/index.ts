@@ -18,7 +18,7 @@ export {
   type ZoneBoundaries,
 } from './iso-zones.js';
 export { timeIndicators, type TimeIndicators } from './time-indicators.js';
-export { accelerationSignal } from './acceleration-signal.js';
+export { accelerationSignal, DIFFERENTIATION_TOP_HZ } from './acceleration-signal.js';
 export { spectralKurtosis, type SpectralKurtosis, type SpectralKurtosisOptions } from './spectral-kurtosis.js';
 export { fastKurtogram, type Kurtogram, type KurtogramBand, type KurtogramOptions } from './kurtogram.js';
 export { envelopeBand, type EnvelopeBand } from './envelope-band.js';
@@ -37,3 +37,21 @@ export { speedFromTach, type TachSpeed } from './tach-speed.js';
 export { LineCatalogue, type CatalogueLine } from './ambiguity.js';
 export { scoreCandidates, evidenceOf, type Candidate, type ScoredCandidate, type ScoreParts, type ScoringInputs } from './hypothesis-score.js';
 export { gearSynchronousAverages, gearTsaIndicators, TSA_MESH_HARMONICS, type GearTsa } from './gear-tsa.js';
+export {
+  indicatorDescriptors,
+  indicatorDescriptor,
+  findIndicator,
+  indicatorUnit,
+  indicatorQuantity,
+  indicatorsOf,
+  accelerationTrendUnit,
+  envelopeFluctuationRms,
+  scoreIndicator,
+  scoreIndicatorName,
+  type IndicatorDescriptor,
+  type IndicatorPoint,
+  type IndicatorQuantity,
+  type IndicatorSources,
+  type IndicatorStage,
+} from './indicators/indicator-registry.js';
+export { computeIndicators, type ComputedIndicators, type IndicatorOptions } from './indicators/compute-indicators.js';
