@@ -4,6 +4,7 @@ import { readFileSync } from 'node:fs';
 import { loadMachineModel, type MachineModel } from '@kinespec/kinematics';
 import { evaluationCases, rampCases } from './eval-cases.js';
 import { GOALS, missedGoals, RAMP_GOALS, runCase, runRamp, summarise, type CaseResult, type EvalSummary } from './evaluate.js';
+import { forecastSection } from './forecast/forecast-section.js';
 
 const MACHINES = ['aeration-mixer-2', 'skelmere-conveyor-drive-2', 'skelmere-feed-pump-3', 'skelmere-id-fan-1', 'skelmere-aeration-blower-1'];
 
@@ -67,6 +68,8 @@ console.log(`  detection: frequency domain ${pct(frequencyDetection)}, order-tra
 const missed = missedGoals(s);
 if (!(angleDetection >= RAMP_GOALS.angleDetection)) missed.push(`order-tracked detection ${pct(angleDetection)} < ${pct(RAMP_GOALS.angleDetection)}`);
 if (!(angleFalse <= RAMP_GOALS.angleFalseAlarmRate)) missed.push(`order-tracked false alarms ${pct(angleFalse)} > ${pct(RAMP_GOALS.angleFalseAlarmRate)}`);
+// Forecasts on runs to failure (tests/eval/forecast/): their own section and goal.
+missed.push(...forecastSection());
 if (missed.length > 0) {
   console.log(`\nGOALS MISSED: ${missed.join('; ')}`);
   process.exitCode = 1;
