@@ -1,12 +1,12 @@
 import { forecastCrossing } from '@kinespec/forecast';
 import { describe, expect, it } from 'vitest';
-import { femtoAvailable, femtoRig, FEMTO_BEARINGS, FEMTO_DIR, loadFemtoRun } from './femto-data.js';
+import { femtoAvailable, femtoDir, femtoRig, FEMTO_BEARINGS, loadFemtoRun } from './femto-data.js';
 import { BASELINE_SNAPSHOTS, indicatorSeries } from './femto-forecast.js';
 
 // The femto-learning runs (../shared/datasets/femto-learning; P. Nectoux et al., IEEE PHM 2012). `npm run eval`
 // runs the whole leave-one-out evaluation; these checks keep the reader and the healthy hour honest in CI.
 const present = femtoAvailable();
-if (!present) console.log(`femto-learning not found at ${FEMTO_DIR}: its forecast checks are skipped`);
+if (!present) console.log(`femto-learning not found at ${femtoDir()}: its forecast checks are skipped`);
 
 describe.skipIf(!present)('femto-learning runs to failure', () => {
   it('reads Bearing1_2 as the data set README describes it: first over 20 g at snapshot 127 of 871', () => {

@@ -1,6 +1,6 @@
 // The forecast section of `npm run eval`: femto-learning runs to failure, leave one bearing out.
 import { FORECAST_METHOD } from '@kinespec/forecast';
-import { femtoAvailable, FEMTO_DIR } from './femto-data.js';
+import { femtoAvailable, femtoDir } from './femto-data.js';
 import { CARRYING_INDICATOR, evaluateFemtoForecasts, FAILURE_PEAK_G, femtoSeries, FORECAST_GOAL_MEAN_A, type FemtoForecastReport } from './femto-forecast.js';
 
 const s = (x: number | null) => (x === null ? '-' : x < 100 ? `${x.toFixed(0)} s` : `${Math.round(x)} s`);
@@ -25,7 +25,7 @@ export function printForecastReport(r: FemtoForecastReport): void {
 /** Runs the section; returns the goals missed (empty when met or when the data set is absent). */
 export function forecastSection(): string[] {
   if (!femtoAvailable()) {
-    console.log(`\nForecast: skipped, the femto-learning data set is not at ${FEMTO_DIR}`);
+    console.log(`\nForecast: skipped, the femto-learning data set is not at ${femtoDir()}`);
     return [];
   }
   const t0 = performance.now();
