@@ -12,7 +12,9 @@ import {
   findIndicator,
   indicatorDescriptor,
   indicatorDescriptors,
+  indicatorLevels,
   indicatorQuantity,
+  levelPointOf,
   indicatorUnit,
   scoreIndicator,
 } from './indicator-registry.js';
@@ -61,6 +63,31 @@ describe('indicator registry', () => {
     expect(indicatorUnit('speed_rpm', { unit: 'g' })).toBe('rpm');
     expect(indicatorUnit('score:unbalance:fan', { unit: 'g' })).toBe('1');
     expect(indicatorDescriptor('speed_rpm').worseWhen).toBe('none');
+  });
+});
+
+describe('indicatorLevels', () => {
+  const vibration = { quantity: 'velocity' as const, iso: { group: 2 as const, foundation: 'rigid' as const }, alarmVelocityRmsMmPerS: null, tripVelocityRmsMmPerS: null, baselineVelocityRmsMmPerS: null };
+
+  it('grades the overall velocity by ISO 10816-3 group 2 rigid: zones 1.4 / 2.8 / 4.5 mm/s, alarm at B/C, trip at C/D (check-values §7)', () => {
+    expect(indicatorLevels('velocity_rms_mm_per_s', vibration)).toEqual({ alarmLevel: 2.8, tripLevel: 4.5, zoneBoundaries: { ab: 1.4, bc: 2.8, cd: 4.5 } });
+    // with a baseline of 1 mm/s: ALARM = baseline + 0.25 × B/C = 1.7 mm/s (ISO 10816-3 §6.3)
+    expect(indicatorLevels('velocity_rms_mm_per_s', { ...vibration, baselineVelocityRmsMmPerS: 1 }).alarmLevel).toBeCloseTo(1.7, 12);
+    expect(indicatorLevels('velocity_rms_mm_per_s', { ...vibration, alarmVelocityRmsMmPerS: 3, tripVelocityRmsMmPerS: 6 })).toMatchObject({ alarmLevel: 3, tripLevel: 6 });
+  });
+
+  it('alarms a fault score at 0.5 with no trip, and gives other indicators no levels of their own', () => {
+    expect(indicatorLevels('score:unbalance:fan', vibration)).toEqual({ alarmLevel: 0.5, tripLevel: null, zoneBoundaries: null });
+    expect(indicatorLevels('kurtosis', vibration)).toEqual({ alarmLevel: null, tripLevel: null, zoneBoundaries: null });
+  });
+
+  it('gives tach and encoder points no levels at all: levels belong to vibration points', () => {
+    expect(indicatorLevels('velocity_rms_mm_per_s', { ...vibration, quantity: 'tach' })).toEqual({ alarmLevel: null, tripLevel: null, zoneBoundaries: null });
+    expect(indicatorLevels('score:unbalance:fan', { ...vibration, quantity: 'encoder' }).alarmLevel).toBeNull();
+    const point = levelPointOf(pump, 'train-tach')!;
+    expect(point.quantity).toBe('tach');
+    expect(levelPointOf(pump, 'pump-de-v')!.iso).not.toBeNull();
+    expect(levelPointOf(pump, 'nowhere')).toBeNull();
   });
 });
 

@@ -1,5 +1,7 @@
 import { convertUnit, isMotionUnit, quantityOfUnit } from '@kinespec/signal';
+import type { MachineModel } from '@kinespec/kinematics';
 import { DiagnosisInputError } from '../errors.js';
+import { gradeSeverity, type IsoFoundation, type IsoGroup } from '../iso-zones.js';
 import type { GearTsa } from '../gear-tsa.js';
 import type { Hypothesis } from '../recording-analysis.js';
 import type { TimeIndicators } from '../time-indicators.js';
@@ -61,6 +63,9 @@ export interface IndicatorSources {
   gearTsa?: readonly GearTsa[] | null;
 }
 
+/** What sets an indicator's alarm and trip levels: the ISO severity rule, the fault-score rule, or nothing. */
+export type IndicatorLevelRule = 'iso-velocity' | 'fault-score' | 'none';
+
 export interface IndicatorDescriptor {
   /** The stable name, or for a family its pattern with <placeholders> (`score:<fault>:<component>`). */
   name: string;
@@ -75,6 +80,8 @@ export interface IndicatorDescriptor {
    * change is an operating condition, not wear). Forecasts and alarms look only at 'up' indicators.
    */
   worseWhen: 'up' | 'none';
+  /** Where its alarm and trip levels come from (levels belong to vibration points only: see indicatorLevels). */
+  levels: IndicatorLevelRule;
   /** Whether `name` belongs to this descriptor (a family matches many names). */
   matches(name: string): boolean;
   /** The unit of the values at a point. */
@@ -142,6 +149,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
       "the channel's Welch PSD integrated line by line to velocity (÷(2πf)² for acceleration) and summed over the band.",
     stage: 'spectrum',
     worseWhen: 'up',
+    levels: 'iso-velocity',
     matches: exactly('velocity_rms_mm_per_s'),
     unit: () => 'mm/s',
     values: (s) => one('velocity_rms_mm_per_s', s.velocityRmsMmPerS),
@@ -155,6 +163,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
       'of the acceleration differentiated up to 1 kHz (the velocity band), not of the whole band.',
     stage: 'time',
     worseWhen: 'up',
+    levels: 'none',
     matches: exactly('acceleration_peak'),
     unit: accelerationTrendUnit,
     values: (s, p) => one('acceleration_peak', accelerationLevel(s, p, (t) => t.peak)),
@@ -166,6 +175,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
     description: 'R.m.s. of the acceleration after mean removal, over the whole record band (a velocity or displacement point: up to 1 kHz).',
     stage: 'time',
     worseWhen: 'up',
+    levels: 'none',
     matches: exactly('acceleration_rms'),
     unit: accelerationTrendUnit,
     values: (s, p) => one('acceleration_rms', accelerationLevel(s, p, (t) => t.rms)),
@@ -177,6 +187,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
     description: 'Peak over r.m.s. of the acceleration (a sine √2; impacts raise it; common practice).',
     stage: 'time',
     worseWhen: 'up',
+    levels: 'none',
     matches: exactly('crest_factor'),
     unit: () => '1',
     values: (s) => one('crest_factor', s.time?.crestFactor),
@@ -188,6 +199,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
     description: 'Pearson kurtosis m4/m2² of the acceleration (Gaussian 3, sine 1.5; impacts raise it; Pearson 1905).',
     stage: 'time',
     worseWhen: 'up',
+    levels: 'none',
     matches: exactly('kurtosis'),
     unit: () => '1',
     values: (s) => one('kurtosis', s.time?.kurtosis),
@@ -201,6 +213,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
       'else the fast kurtogram): how strongly impacts modulate the band, in the unit the point measures (0 for a steady tone).',
     stage: 'envelope',
     worseWhen: 'up',
+    levels: 'none',
     matches: exactly('envelope_rms'),
     unit: (p) => p.unit ?? accelerationTrendUnit(p),
     values: (s, p) => {
@@ -217,6 +230,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
     description: "Spectral kurtosis of the fast kurtogram's best band, when the kurtogram chose the demodulation band (Antoni 2007, MSSP 21:108).",
     stage: 'envelope',
     worseWhen: 'up',
+    levels: 'none',
     matches: exactly('kurtogram_kurtosis'),
     unit: () => '1',
     values: (s) => one('kurtogram_kurtosis', s.envelope?.kurtogramKurtosis),
@@ -228,6 +242,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
     description: "Speed of the model's reference shaft: from a tach or encoder channel, else the comb search of the running lines in the spectrum.",
     stage: 'analysis',
     worseWhen: 'none',
+    levels: 'none',
     matches: exactly('speed_rpm'),
     unit: () => 'rpm',
     values: (s) => one('speed_rpm', s.speedHz !== null && s.speedHz !== undefined ? s.speedHz * 60 : null),
@@ -241,6 +256,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
       'average over its own shaft, when a tach or encoder channel gives the angle.',
     stage: 'analysis',
     worseWhen: 'up',
+    levels: 'none',
     matches: (n) => TSA_NAME.test(n),
     unit: () => '1',
     values: (s) => {
@@ -260,6 +276,7 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
     description: 'Score 0..1 of one fault hypothesis of the model (0.5 or more: the recording shows it); packages/diagnosis/README.md.',
     stage: 'analysis',
     worseWhen: 'up',
+    levels: 'fault-score',
     matches: (n) => SCORE_NAME.test(n),
     unit: () => '1',
     values: (s) => {
@@ -318,4 +335,63 @@ export function indicatorsOf(sources: IndicatorSources, point: IndicatorPoint): 
     }
   }
   return { values, units };
+}
+
+/** A fault score at or above this says the recording shows the fault (packages/diagnosis/README.md): its alarm level. */
+export const FAULT_SHOWN_SCORE = 0.5;
+
+/** What the levels of an indicator at a point depend on: its quantity and its ISO class and own levels. */
+export interface LevelPoint {
+  /** The point's quantity; 'tach' and 'encoder' points have no vibration levels. */
+  quantity: 'acceleration' | 'velocity' | 'displacement' | 'tach' | 'encoder';
+  iso: { group: IsoGroup; foundation: IsoFoundation } | null;
+  alarmVelocityRmsMmPerS: number | null;
+  tripVelocityRmsMmPerS: number | null;
+  baselineVelocityRmsMmPerS: number | null;
+}
+
+export interface IndicatorLevels {
+  alarmLevel: number | null;
+  tripLevel: number | null;
+  /** ISO zone boundaries A/B, B/C, C/D in the indicator's unit, when the indicator is graded in zones. */
+  zoneBoundaries: { ab: number; bc: number; cd: number } | null;
+}
+
+const NO_LEVELS: IndicatorLevels = { alarmLevel: null, tripLevel: null, zoneBoundaries: null };
+
+/**
+ * The alarm and trip levels (and ISO zone boundaries) of an indicator at a point. Levels belong to vibration
+ * points: a tach or encoder point has none. The overall velocity follows gradeSeverity (the point's own levels,
+ * else ALARM = baseline + 0.25 × B/C at most 1.25 × B/C, or B/C, and TRIP = C/D; ISO 10816-3 §6.3); a fault score
+ * alarms at FAULT_SHOWN_SCORE and has no trip; other indicators have no levels of their own (a value given).
+ */
+export function indicatorLevels(name: string, point: LevelPoint): IndicatorLevels {
+  if (point.quantity === 'tach' || point.quantity === 'encoder') return NO_LEVELS;
+  const rule = findIndicator(name)?.levels ?? 'none';
+  if (rule === 'fault-score') return { alarmLevel: FAULT_SHOWN_SCORE, tripLevel: null, zoneBoundaries: null };
+  if (rule !== 'iso-velocity') return NO_LEVELS;
+  const g = gradeSeverity(0, {
+    iso: point.iso,
+    alarmVelocityRmsMmPerS: point.alarmVelocityRmsMmPerS,
+    tripVelocityRmsMmPerS: point.tripVelocityRmsMmPerS,
+    baselineVelocityRmsMmPerS: point.baselineVelocityRmsMmPerS,
+  });
+  return {
+    alarmLevel: g.alarmLevelMmPerS,
+    tripLevel: g.tripLevelMmPerS,
+    zoneBoundaries: g.boundaries ? { ab: g.boundaries.abMmPerS, bc: g.boundaries.bcMmPerS, cd: g.boundaries.cdMmPerS } : null,
+  };
+}
+
+/** The level inputs of a model's point (its own ISO class, else the machine's), or null when the model has no such point. */
+export function levelPointOf(model: MachineModel, pointId: string): LevelPoint | null {
+  const p = model.points.find((x) => x.id === pointId);
+  if (!p) return null;
+  return {
+    quantity: p.quantity,
+    iso: (p.iso ?? model.iso ?? null) as LevelPoint['iso'],
+    alarmVelocityRmsMmPerS: p.alarmVelocityRmsMmPerS ?? null,
+    tripVelocityRmsMmPerS: p.tripVelocityRmsMmPerS ?? null,
+    baselineVelocityRmsMmPerS: p.baseline?.velocityRmsMmPerS ?? null,
+  };
 }
