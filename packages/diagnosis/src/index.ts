@@ -50,6 +50,8 @@ export {
   scoreIndicatorName,
   indicatorLevels,
   levelPointOf,
+  thresholdOf,
+  type ThresholdChoice,
   FAULT_SHOWN_SCORE,
   type IndicatorDescriptor,
   type IndicatorLevels,

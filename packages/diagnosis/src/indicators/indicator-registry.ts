@@ -395,3 +395,30 @@ export function levelPointOf(model: MachineModel, pointId: string): LevelPoint |
     baselineVelocityRmsMmPerS: p.baseline?.velocityRmsMmPerS ?? null,
   };
 }
+
+/** Which level a forecast is made against: a value, the lower boundary of an ISO zone, or the point's alarm or trip level. */
+export type ThresholdChoice = { value: number } | { zone: 'B' | 'C' | 'D' } | { level: 'alarm' | 'trip' };
+
+/**
+ * The threshold a choice names for an indicator at a point, with words for it ("zone C boundary", "the alarm level").
+ * A zone, an alarm or a trip the indicator does not have at that point is a DiagnosisInputError that says so.
+ */
+export function thresholdOf(name: string, point: LevelPoint, choice: ThresholdChoice): { value: number; label: string } {
+  if ('value' in choice) {
+    if (!Number.isFinite(choice.value)) throw new DiagnosisInputError('invalid_argument', `threshold (${choice.value}) must be a finite number`);
+    return { value: choice.value, label: 'the value given' };
+  }
+  const levels = indicatorLevels(name, point);
+  if ('zone' in choice) {
+    const b = levels.zoneBoundaries;
+    if (!b) throw new DiagnosisInputError('invalid_argument', `indicator '${name}' has no ISO zones at this point (only velocity_rms_mm_per_s at a vibration point with an ISO class)`);
+    const value = choice.zone === 'B' ? b.ab : choice.zone === 'C' ? b.bc : b.cd;
+    return { value, label: `the zone ${choice.zone} boundary` };
+  }
+  const value = choice.level === 'alarm' ? levels.alarmLevel : levels.tripLevel;
+  if (value === null) {
+    const why = point.quantity === 'tach' || point.quantity === 'encoder' ? `a ${point.quantity} point has no vibration levels` : `indicator '${name}' has no ${choice.level} level here`;
+    throw new DiagnosisInputError('invalid_argument', `no ${choice.level} level: ${why}; give a threshold value`);
+  }
+  return { value, label: `the ${choice.level} level` };
+}
