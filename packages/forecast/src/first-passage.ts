@@ -31,25 +31,38 @@ export interface PassageTable {
 
 /** Grid points of the table: spacing of about 1 % in time over twelve decades, far finer than any interval reported. */
 const TABLE_POINTS = 2400;
+/** Points added around the most likely passage time, across ±PEAK_WIDTHS of its spread. */
+const PEAK_POINTS = 600;
+const PEAK_WIDTHS = 10;
 
 /**
  * P(T ≤ t) for t up to `horizonS`, by the trapezoidal rule on a logarithmic time grid (the density is smooth in
- * ln t) starting well below the diffusion time D²/σ², before which the passage is vanishingly unlikely.
+ * ln t) starting well below the diffusion time D²/σ², before which the passage is vanishingly unlikely. A passage
+ * of nearly certain drift and little diffusion is a peak narrower than that grid: a dense grid is laid across
+ * the peak as well, at D/m ± 10 spreads (delta method: var T ≈ Dσ²/m³ + (D/m²)²·v).
  */
 export function passageTable(p: FirstPassage, horizonS: number): PassageTable {
   const diffusionTimeS = (p.distance * p.distance) / p.diffusionPerS;
   const lowS = Math.max(1e-9, 1e-4 * Math.min(diffusionTimeS, horizonS));
-  const timesS = new Float64Array(TABLE_POINTS);
-  const cdf = new Float64Array(TABLE_POINTS);
+  const grid: number[] = [];
   const step = Math.log(horizonS / lowS) / (TABLE_POINTS - 1);
-  let previous = 0;
-  for (let i = 0; i < TABLE_POINTS; i++) {
-    const t = lowS * Math.exp(i * step);
-    timesS[i] = t;
-    // f(t) dt = f(t) t d(ln t)
-    const g = firstPassageDensity(p, t) * t;
-    cdf[i] = i === 0 ? 0 : cdf[i - 1]! + 0.5 * (g + previous) * step;
-    previous = g;
+  for (let i = 0; i < TABLE_POINTS; i++) grid.push(lowS * Math.exp(i * step));
+  const m = p.driftMeanPerS;
+  if (m > 0) {
+    const modeS = p.distance / m;
+    const sdS = Math.sqrt((p.distance * p.diffusionPerS) / m ** 3 + (p.distance / (m * m)) ** 2 * p.driftVarPerS2);
+    const from = Math.max(lowS, modeS - PEAK_WIDTHS * sdS);
+    const to = Math.min(horizonS, modeS + PEAK_WIDTHS * sdS);
+    if (to > from) for (let i = 0; i <= PEAK_POINTS; i++) grid.push(from + ((to - from) * i) / PEAK_POINTS);
+  }
+  grid.sort((a, b) => a - b);
+  const timesS = Float64Array.from(grid);
+  const cdf = new Float64Array(timesS.length);
+  let previous = firstPassageDensity(p, timesS[0]!);
+  for (let i = 1; i < timesS.length; i++) {
+    const f = firstPassageDensity(p, timesS[i]!);
+    cdf[i] = cdf[i - 1]! + 0.5 * (f + previous) * (timesS[i]! - timesS[i - 1]!);
+    previous = f;
   }
   return { timesS, cdf };
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { findOnset } from './change-point.js';
 import { ForecastInputError } from './errors.js';
-import { forecastCrossing, type TrendValue } from './forecast.js';
+import { forecastCrossing, remainingQuantile, type TrendValue } from './forecast.js';
 import { lastingLevel } from './lasting-level.js';
 
 /** Standard normal deviates from a Park–Miller generator (Park & Miller 1988, CACM 31:1192) through Box & Muller (1958). */
@@ -45,6 +45,15 @@ describe('forecastCrossing on an exponential with known rate and noise (closed f
     expect(f.scale).toBe('log');
     expect(f.drift!.meanPerS / 1e-3).toBeGreaterThan(0.85);
     expect(f.drift!.meanPerS / 1e-3).toBeLessThan(1.15);
+  });
+
+  it('gives its median and interval ends through remainingQuantile too (for other decision rules)', () => {
+    const q = remainingQuantile(f);
+    expect(q(0.5)).toBeCloseTo(f.remainingS!, 6);
+    expect(q(0.1)).toBeCloseTo(f.lowS!, 6);
+    expect(q(0.9)).toBeCloseTo(f.highS!, 6);
+    // the lasting level (median of three values 10 s apart) stands for the value 10 s before the last
+    expect(f.levelLagS).toBe(10);
   });
 
   it('narrows as the crossing nears: the interval at 4300 s is narrower than at 3800 s', () => {

@@ -51,8 +51,10 @@ export interface Forecast {
   horizonS: number;
   /** The drift posterior, per second in the scale (ln units on the log scale). */
   drift: { meanPerS: number; sdPerS: number; diffusionPerS: number } | null;
-  /** The first passage that was modelled (for other decision rules than the median), or null. */
+  /** The first passage that was modelled (for other decision rules than the median: remainingQuantile), or null. */
   passage: FirstPassage | null;
+  /** How long before the last value the lasting level stands (the middle of its window): the passage starts there. */
+  levelLagS: number;
   method: string;
 }
 
@@ -96,6 +98,7 @@ export function forecastCrossing(series: readonly TrendValue[], threshold: numbe
     horizonS,
     drift: null,
     passage: null,
+    levelLagS: timesS[n - 1]! - windowCentreS(timesS, options.levelWindow ?? LEVEL_WINDOW),
     method: FORECAST_METHOD,
   };
   const onset = findOnset(timesS, levels, raw, n, baselineCount, minSpread);
@@ -138,16 +141,19 @@ export function forecastCrossing(series: readonly TrendValue[], threshold: numbe
     return { ...base, status: 'no-crossing', reason: `no crossing foreseen within the horizon of ${duration(horizonS)} (probability ${(100 * p).toFixed(0)} %)` };
   }
   const [qLow, qHigh] = options.interval ?? [0.1, 0.9];
-  const lowS = passageQuantile(table, qLow);
-  const highS = passageQuantile(table, qHigh);
+  // The lasting level of a rising series is the value from the middle of its window (a median lags half the
+  // window), so its passage is timed from there: the remaining time is counted from the last value.
+  const lagS = base.levelLagS;
+  const fromNow = (t: number | null) => (t === null ? null : Math.max(0, t - lagS));
+  const remainingS = fromNow(median50)!;
   return {
     ...base,
     status: 'crossing',
-    reason: `rising since ${duration(timesS[n - 1]! - timesS[onset.index]!)} ago; crossing foreseen in about ${duration(median50)}`,
-    remainingS: median50,
-    lowS,
-    highS,
-    crossingTS: timesS[n - 1]! + median50,
+    reason: `rising since ${duration(timesS[n - 1]! - timesS[onset.index]!)} ago; crossing foreseen in about ${duration(remainingS)}`,
+    remainingS,
+    lowS: fromNow(passageQuantile(table, qLow)),
+    highS: fromNow(passageQuantile(table, qHigh)),
+    crossingTS: timesS[n - 1]! + remainingS,
   };
 }
 
@@ -194,6 +200,29 @@ export function populationDriftPrior(runs: ReadonlyArray<readonly TrendValue[]>,
   const mean = drifts.reduce((a, b) => a + b, 0) / drifts.length;
   const variance = drifts.reduce((a, b) => a + (b - mean) ** 2, 0) / (drifts.length - 1);
   return { meanPerS: mean, sdPerS: Math.sqrt(variance) };
+}
+
+/**
+ * The remaining time, counted from the last value, by which the crossing has happened with probability q (null when
+ * beyond the horizon, or when no rise was modelled): the quantiles behind lowS, remainingS and highS, for other
+ * decision rules (bestPhmEstimate).
+ */
+export function remainingQuantile(f: Forecast): (q: number) => number | null {
+  if (f.status === 'crossed') return () => 0;
+  if (!f.passage) return () => null;
+  const table = passageTable(f.passage, f.horizonS);
+  return (q) => {
+    const t = passageQuantile(table, q);
+    return t === null ? null : Math.max(0, t - f.levelLagS);
+  };
+}
+
+/** The time the last lasting level stands for: the centre of its trailing window (mean of the middle two for an even width). */
+function windowCentreS(timesS: Float64Array, width: number): number {
+  const n = timesS.length;
+  const m = Math.min(width, n);
+  const first = n - m;
+  return m % 2 === 1 ? timesS[first + (m - 1) / 2]! : 0.5 * (timesS[first + m / 2 - 1]! + timesS[first + m / 2]!);
 }
 
 function validate(series: readonly TrendValue[], threshold: number, options: ForecastOptions): void {

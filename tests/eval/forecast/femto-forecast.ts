@@ -6,11 +6,10 @@ import {
   findOnset,
   forecastCrossing,
   lastingLevel,
-  passageQuantile,
-  passageTable,
   percentError,
   phmAccuracy,
   populationDriftPrior,
+  remainingQuantile,
   type DriftPrior,
   type Forecast,
   type TrendValue,
@@ -142,9 +141,8 @@ function runOnsetS(points: readonly PointSeries[]): number | null {
 /** The estimate to score from one point's forecast: 0 once crossed, the expected-accuracy maximiser when foreseen. */
 function estimateOf(f: Forecast): number | null {
   if (f.status === 'crossed') return 0;
-  if (f.status !== 'crossing' || !f.passage) return null;
-  const table = passageTable(f.passage, f.horizonS);
-  return bestPhmEstimate((q) => passageQuantile(table, q));
+  if (f.status !== 'crossing') return null;
+  return bestPhmEstimate(remainingQuantile(f));
 }
 
 function cutAt(points: readonly PointSeries[], endIndex: number, threshold: number, prior: DriftPrior | null): Array<{ pointId: string; forecast: Forecast; estimateS: number | null }> {
