@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auth, makeSite, startTestService, targets, type TestService, type TestSite } from './harness.js';
-import { MACHINE, modelText, OMEGA_RAD_PER_S, POINT, SAMPLE_COUNT, SAMPLE_RATE_HZ, wav } from './fixtures.js';
+import { accelerationWithVelocityRms, MACHINE, modelText, POINT } from './fixtures.js';
 
 /*
  * Forecasts through HTTP on a series whose crossing is known in closed form. The model is ISO 10816-3 group 2 on
@@ -15,14 +15,6 @@ const DAY_MS = 86_400_000;
 const START = Math.floor((Date.now() - 40 * DAY_MS) / DAY_MS) * DAY_MS + 6 * 3_600_000;
 const DAYS = 36;
 const velocityOfDay = (d: number) => (d <= 20 ? 1 : Math.exp(0.05 * (d - 20)));
-
-/** Acceleration sine (m/s^2) whose r.m.s. velocity is `v` mm/s: A = v √2 ω / 1000 (common practice). */
-function accelerationWithVelocityRms(v: number): Buffer {
-  const amplitude = (v * Math.SQRT2 * OMEGA_RAD_PER_S) / 1000;
-  const x = new Float64Array(SAMPLE_COUNT);
-  for (let i = 0; i < x.length; i++) x[i] = amplitude * Math.sin((OMEGA_RAD_PER_S * i) / SAMPLE_RATE_HZ);
-  return wav(x);
-}
 
 const target = targets[0]!;
 describe(`trend forecasts on ${target.name}`, () => {

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auth, makeSite, startTestService, targets, type TestService, type TestSite } from './harness.js';
-import { MACHINE, modelText, OMEGA_RAD_PER_S, SAMPLE_COUNT, SAMPLE_RATE_HZ, POINT, wav } from './fixtures.js';
+import { accelerationWithVelocityRms, MACHINE, modelText, OMEGA_RAD_PER_S, SAMPLE_COUNT, SAMPLE_RATE_HZ, POINT } from './fixtures.js';
 import { encodeWav } from '@kinespec/signal';
 
 /*
@@ -16,14 +16,6 @@ const VELOCITY_POINT = 'gb-output-v';
 const model = JSON.parse(modelText) as { points: unknown[] };
 model.points.push({ id: VELOCITY_POINT, near: 'output-nde', direction: 'vertical', quantity: 'velocity', unit: 'mm/s', alarmVelocityRmsMmPerS: 3, tripVelocityRmsMmPerS: 6 });
 const testModelText = JSON.stringify(model);
-
-/** Acceleration sine (m/s^2) whose r.m.s. velocity is `v` mm/s: A = v sqrt 2 omega / 1000. */
-function accelerationWithVelocityRms(v: number): Buffer {
-  const amplitude = (v * Math.SQRT2 * OMEGA_RAD_PER_S) / 1000;
-  const x = new Float64Array(SAMPLE_COUNT);
-  for (let i = 0; i < x.length; i++) x[i] = amplitude * Math.sin((OMEGA_RAD_PER_S * i) / SAMPLE_RATE_HZ);
-  return wav(x);
-}
 
 function velocityWithRms(v: number): Buffer {
   const x = new Float64Array(SAMPLE_COUNT);
