@@ -1,16 +1,8 @@
 import { pointUnit, shaftRatios, speedRangeRpm, type MachineModel } from '@kinespec/kinematics';
 import { bandRms, integrateSpectrum, isMotionUnit, quantityOfUnit, welchSpectrum, withScaling, type Recording } from '@kinespec/signal';
 import { accelerationSignal } from '../acceleration-signal.js';
-import {
-  analyseRecording,
-  chooseSegmentLength,
-  defaultUnit,
-  pointOf,
-  tachChannelOf,
-  velocityPsdMmPerS,
-  vibrationChannelOf,
-  type AnalyseOptions,
-} from '../analyse-recording.js';
+import { analyseRecording, chooseSegmentLength, velocityPsdMmPerS, type AnalyseOptions } from '../analyse-recording.js';
+import { defaultUnit, pointOf, tachChannelOf, vibrationChannelOf } from '../channel-selection.js';
 import { DiagnosisInputError } from '../errors.js';
 import { isoBandHz } from '../iso-zones.js';
 import { timeIndicators } from '../time-indicators.js';

@@ -1,4 +1,4 @@
-import { convertUnit, isMotionUnit, quantityOfUnit } from '@kinespec/signal';
+import { bandRms, convertUnit, isMotionUnit, quantityOfUnit, type Spectrum } from '@kinespec/signal';
 import type { MachineModel } from '@kinespec/kinematics';
 import { DiagnosisInputError } from '../errors.js';
 import { gradeSeverity, type IsoFoundation, type IsoGroup } from '../iso-zones.js';
@@ -21,9 +21,10 @@ import type { TimeIndicators } from '../time-indicators.js';
  * - Acceleration indicators are trended in the point's unit when the point measures acceleration (g stays g
  *   whatever unit a recording came in), else in m/s² (the SI unit; no point unit to follow).
  * - The envelope r.m.s. is a level of the signal as measured (the envelope of the band-passed channel), so it
- *   is in the point's own unit whatever its quantity: g on an accelerometer, mm/s on a velocity point. It is the
- *   r.m.s. of the envelope's fluctuation; it used to be read from the squared envelope's spectrum, a value in g²
- *   that was labelled g and scaled by the service as if it were g.
+ *   is in the point's own unit whatever its quantity: g on an accelerometer, mm/s on a velocity point: the root of
+ *   the r.m.s. of the squared envelope's fluctuation (envelopeLevel). It used to be that r.m.s. itself, a value in
+ *   g² labelled g and scaled by the service as if it were g. Its band is the default one (the point's resonance,
+ *   else the most impulsive band), not the band a shown hypothesis chose, so that a trend keeps one band.
  * - Crest factor, kurtosis, the kurtogram's kurtosis and the gear indicators are ratios (unit '1'); fault
  *   scores are dimensionless 0..1; speed is in rpm; the overall velocity is in mm/s whatever the point measures
  *   (ISO 20816 grades it so).
@@ -57,8 +58,11 @@ export interface IndicatorSources {
   velocityRmsMmPerS?: number | null;
   /** Running speed of the reference shaft, Hz. */
   speedHz?: number | null;
-  /** The envelope of the band-passed channel: its square (hilbertEnvelope squared), in the channel's unit squared. */
-  envelope?: { squaredEnvelope: Float64Array; unit: string; kurtogramKurtosis?: number } | null;
+  /**
+   * The envelope analysis of the trend's band: the Welch spectrum of the band's squared envelope (peak scaling, in
+   * the channel's unit squared, mean removed), the channel's unit, and the kurtogram's kurtosis when it chose the band.
+   */
+  envelope?: { spectrum: Spectrum; unit: string; kurtogramKurtosis?: number } | null;
   hypotheses?: readonly Pick<Hypothesis, 'fault' | 'component' | 'score'>[] | null;
   gearTsa?: readonly GearTsa[] | null;
 }
@@ -117,22 +121,17 @@ function accelerationLevel(sources: IndicatorSources, point: IndicatorPoint, pic
 }
 
 /**
- * R.m.s. of the envelope's fluctuation (its mean removed), from the squared envelope e²: the envelope is √e².
- * A steady tone in the band has a constant envelope (0); amplitude modulation 1 + m·cos ωt of a carrier of
- * amplitude A gives A·m/√2 (the envelope is A·(1 + m·cos ωt); Randall & Antoni 2011, MSSP 25:485, §3, from memory).
+ * The envelope level of a band: the square root of the r.m.s. of its squared envelope's fluctuation (the squared-
+ * envelope spectrum above DC, up to the band's width; bandRms). The squared envelope is what the bearing analysis
+ * demodulates (Randall & Antoni 2011, MSSP 25:485, §3); its r.m.s. is in the channel's unit squared, and the root
+ * makes a level that grows in proportion to the signal, in the channel's unit. A steady tone in the band has a
+ * constant envelope (0); a carrier of amplitude A modulated 1 + m·cos ωt has e² = A²(1 + m²/2 + 2m cos ωt +
+ * (m²/2) cos 2ωt), whose fluctuation has r.m.s. A²·√(2m² + m⁴/8).
  */
-export function envelopeFluctuationRms(squaredEnvelope: Float64Array): number {
-  const n = squaredEnvelope.length;
-  if (n === 0) return 0;
-  let sum = 0;
-  for (let i = 0; i < n; i++) sum += Math.sqrt(squaredEnvelope[i]!);
-  const mean = sum / n;
-  let ss = 0;
-  for (let i = 0; i < n; i++) {
-    const d = Math.sqrt(squaredEnvelope[i]!) - mean;
-    ss += d * d;
-  }
-  return Math.sqrt(ss / n);
+export function envelopeLevel(squaredEnvelopeSpectrum: Spectrum): number {
+  const f = squaredEnvelopeSpectrum.frequenciesHz;
+  if (f.length < 2) return 0;
+  return Math.sqrt(bandRms(squaredEnvelopeSpectrum, [squaredEnvelopeSpectrum.frequencyResolutionHz, f[f.length - 1]!]));
 }
 
 const SCORE_NAME = /^score:([^:]+):(.+)$/;
@@ -209,8 +208,8 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
     title: 'Envelope r.m.s.',
     quantity: (p) => pointQuantity(p) ?? ACCELERATION,
     description:
-      "R.m.s. of the fluctuation of the envelope of the channel band-passed to the demodulation band (the point's resonance, " +
-      'else the fast kurtogram): how strongly impacts modulate the band, in the unit the point measures (0 for a steady tone).',
+      "Square root of the r.m.s. of the squared envelope's fluctuation in the default demodulation band (the point's resonance, " +
+      'else the most impulsive band): how strongly impacts modulate the band, in the unit the point measures (0 for a steady tone).',
     stage: 'envelope',
     worseWhen: 'up',
     levels: 'none',
@@ -218,16 +217,16 @@ export const indicatorDescriptors: readonly IndicatorDescriptor[] = [
     unit: (p) => p.unit ?? accelerationTrendUnit(p),
     values: (s, p) => {
       if (!s.envelope) return {};
-      const rms = envelopeFluctuationRms(s.envelope.squaredEnvelope);
+      const level = envelopeLevel(s.envelope.spectrum);
       const to = p.unit ?? s.envelope.unit;
-      return one('envelope_rms', to === s.envelope.unit ? rms : convertUnit(rms, s.envelope.unit, to));
+      return one('envelope_rms', to === s.envelope.unit ? level : convertUnit(level, s.envelope.unit, to));
     },
   },
   {
     name: 'kurtogram_kurtosis',
     title: 'Kurtogram kurtosis',
     quantity: 'ratio',
-    description: "Spectral kurtosis of the fast kurtogram's best band, when the kurtogram chose the demodulation band (Antoni 2007, MSSP 21:108).",
+    description: "Kurtosis of the complex envelope of the most impulsive band, when no resonance of the point gives the band (spectral kurtosis: Antoni 2007, MSSP 21:108).",
     stage: 'envelope',
     worseWhen: 'up',
     levels: 'none',
