@@ -194,7 +194,6 @@ export async function ingestRecording(
   const analysis = await runAnalysis(pool, recording, {
     model,
     pointId: input.point.pointKey,
-    pointUnit: input.point.unit,
     ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
   });
   const resultJson = storedAnalysisJson(analysis);

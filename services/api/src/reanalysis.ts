@@ -51,7 +51,7 @@ export async function reanalyseMachine(
     };
     let analysis: RecordingAnalysis;
     try {
-      analysis = await runAnalysis(pool, recording, { model, pointId: point.pointKey, pointUnit: point.unit, ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}) });
+      analysis = await runAnalysis(pool, recording, { model, pointId: point.pointKey, ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}) });
     } catch (err) {
       failed.push({ recordingId: id, reason: err instanceof Error ? err.message : String(err) });
       continue;
