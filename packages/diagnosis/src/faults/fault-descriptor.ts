@@ -46,7 +46,9 @@ export type GateName =
   /** Judged only against a baseline of the same point: the path from mesh to sensor sets mesh harmonic ratios. */
   | 'needs-baseline'
   /** A local tooth fault spreads its sidebands far from each mesh harmonic, not only ±1×, ±2× (runout does that). */
-  | 'wide-sidebands';
+  | 'wide-sidebands'
+  /** A local tooth fault strikes once per turn: its mesh's envelope is a comb of its shaft rate. */
+  | 'once-per-turn';
 
 /**
  * One home for a fault kind's judging: everything the diagnosis reads of a kind beyond the vocabulary facts of

@@ -21,6 +21,8 @@ export interface GateContext {
   /** Where the running speed came from, and the running lines that placed it when the spectrum did. */
   /** A baseline of the point exists (an earlier analysis, or the model's healthy orders). */
   hasBaseline: boolean;
+  /** Harmonics of the gear's shaft rate found in its mesh's envelope (null when the record cannot tell). */
+  oncePerTurn: () => number | null;
   speed: {
     source: 'tach' | 'encoder' | 'spectrum' | 'given' | null;
     /** Orders (of the reference shaft) of the running lines that placed the speed, when the spectrum did. */
@@ -111,6 +113,19 @@ export const gates: Readonly<Record<GateName, (context: GateContext) => GateResu
    * Vibration-based Condition Monitoring, 2011, ch. 2: local versus distributed faults, from memory). At least
    * WIDE_SIDEBANDS found sidebands of order 3 or more count fully, one or none count nothing.
    */
+  /**
+   * A local tooth fault strikes once per turn of its gear: the envelope of its mesh is impulsive at the shaft rate, a
+   * comb of many harmonics (Randall 2011, ch. 2 and 6: envelope and cepstrum at the faulty gear's rate, from memory),
+   * where a smooth runout gives 1× and 2×. Five or more of the first eight count fully, two or fewer nothing; a record
+   * that cannot tell (no band holds the mesh harmonics) leaves the score as it is.
+   */
+  'once-per-turn': ({ oncePerTurn }) => {
+    const n = oncePerTurn();
+    if (n === null) return { factor: 1 };
+    const factor = clamp01((n - 2) / 3);
+    return factor >= 1 ? { factor } : { factor, reason: `the envelope of its mesh shows only ${n} of 8 harmonics of its shaft rate (a local tooth fault strikes once per turn)` };
+  },
+
   'wide-sidebands': ({ lines }) => {
     const wide = lines.filter((l) => l.counted && l.matched && l.sidebandOrder !== null && Math.abs(l.sidebandOrder) >= 3).length;
     const factor = clamp01((wide - 1) / (WIDE_SIDEBANDS - 1));
