@@ -240,11 +240,9 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
   // lattice happens to touch.
   const own = slip === null ? new Uint8Array(n) : ownPeaks(comb, measured, slip, NEAR_SIDEBANDS, options);
   const ownWide = slip === null ? own : ownPeaks(comb, measured, slip, OWN_SIDEBANDS, options);
-  const harmonics: HarmonicContext[] = [];
-  for (let h = 1; h <= harmonicCount; h++) {
-    const c = Math.round((h * comb.defectHz) / df);
-    // ±max(50 bins, its frequency), widened until it holds NEIGHBOURHOOD_MIN_BINS bins that are neither the pattern's
-    // nor a foreign harmonic's (a strongly modulated pattern can own most of the bins near its first harmonics).
+  // ±max(50 bins, its frequency), widened until it holds NEIGHBOURHOOD_MIN_BINS bins that are neither the pattern's
+  // nor a foreign harmonic's (a strongly modulated pattern can own most of the bins near its first harmonics).
+  const localChanceModel = (c: number): ChanceModel => {
     let reach = Math.max(NEIGHBOURHOOD_MIN_BINS, c);
     let lo = Math.max(1, c - reach);
     let hi = Math.min(n - 2, c + reach);
@@ -265,7 +263,15 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
       if (!own[k] && !foreign[k]) neighbourhood.push(snrDb[k]!);
     }
     neighbourhood.sort((a, b) => b - a);
-    const chance = chanceModel({ peakSnrDb: neighbourhood, widthBins: width });
+    return chanceModel({ peakSnrDb: neighbourhood, widthBins: width });
+  };
+  const harmonics: HarmonicContext[] = [];
+  // The search (no slip yet) weighs every harmonic against the whole spectrum's peaks, computed once per spectrum: it
+  // only ranks bands and slips. The pattern found is weighed against each harmonic's own neighbourhood.
+  const searchModel = slip === null ? spectrumChanceModel(measured, foreign) : null;
+  for (let h = 1; h <= harmonicCount; h++) {
+    const c = Math.round((h * comb.defectHz) / df);
+    const chance = searchModel ?? localChanceModel(c);
     // Half a bin for where a tone falls, a bin for the slip grid and the peak's own spread, and three standard
     // uncertainties of the speed scaled to this harmonic.
     const toleranceHz = df + 3 * options.speedUncertaintyFraction * h * comb.defectHz;
@@ -279,8 +285,9 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
     for (let i = firstAtOrAbove(maxima, reachLo); i < maxima.length && maxima[i]! <= reachHi; i++) {
       const k = maxima[i]!;
       if (!eligible(k)) continue;
-      const p = peakAt(measured, k);
-      peaks.push({ bin: k, frequencyHz: p.frequencyHz, snrDb: snrDb[k]!, chance: chanceOfPeak(chance, snrDb[k]!, windowBins) });
+      // The search places peaks at their bins; the pattern found is placed at interpolated frequencies.
+      const frequencyHz = slip === null ? k * df : peakAt(measured, k).frequencyHz;
+      peaks.push({ bin: k, frequencyHz, snrDb: snrDb[k]!, chance: chanceOfPeak(chance, snrDb[k]!, windowBins) });
     }
     harmonics.push({
       harmonic: h,
@@ -331,9 +338,9 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
         out.counted++;
         let peak: CandidatePeak | null = null;
         if (best >= 0) {
-          const p = peakAt(measured, best);
-          if (Math.abs(p.frequencyHz - at) <= df * 1.1) {
-            peak = { bin: best, frequencyHz: p.frequencyHz, snrDb: snrDb[best]!, chance: Math.max(sidebandFloor, chanceOfPeak(harmonic.chance, snrDb[best]!, 2)) };
+          const frequencyHz = slip === null ? best * df : peakAt(measured, best).frequencyHz;
+          if (Math.abs(frequencyHz - at) <= df * 1.1) {
+            peak = { bin: best, frequencyHz, snrDb: snrDb[best]!, chance: Math.max(sidebandFloor, chanceOfPeak(harmonic.chance, snrDb[best]!, 2)) };
             out.chances.push(peak.chance);
           }
         }
@@ -345,6 +352,28 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
   };
   return { measured, harmonics, sidebandsOf };
 }
+
+/** The chance model of a whole spectrum's peaks off the foreign harmonics (memoized per spectrum and mask). */
+function spectrumChanceModel(measured: MatchableSpectrum, foreign: Uint8Array): ChanceModel {
+  let memo = spectrumModelMemo.get(measured);
+  if (!memo) {
+    memo = new WeakMap();
+    spectrumModelMemo.set(measured, memo);
+  }
+  const known = memo.get(foreign);
+  if (known) return known;
+  const n = measured.spectrum.values.length;
+  const peaks: number[] = [];
+  let width = 0;
+  for (let k = 1; k < n - 1; k++) if (!foreign[k]) width++;
+  for (const k of measured.maxima) if (!foreign[k]) peaks.push(measured.snrDb[k]!);
+  peaks.sort((a, b) => b - a);
+  const model = chanceModel({ peakSnrDb: peaks, widthBins: width });
+  memo.set(foreign, model);
+  return model;
+}
+
+const spectrumModelMemo = new WeakMap<MatchableSpectrum, WeakMap<Uint8Array, ChanceModel>>();
 
 /** The bins of the peaks on a comb's modulation lattice at a slip, with sidebands out to ±sidebands (see bandContext). */
 function ownPeaks(comb: BearingComb, measured: MatchableSpectrum, slip: number, sidebands: number, options: CombSearchOptions): Uint8Array {
