@@ -130,6 +130,8 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
             'content-type': 'audio/wav',
             'idempotency-key': `demo:${model.id}:${pointId}:${slot}`,
             'x-recorded-at': recordedAt.toISOString(),
+            // a logger set up for the point states the unit its channel is in
+            'x-unit': vibration.channels[0]!.unit,
           },
           payload: wav,
         });

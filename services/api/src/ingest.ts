@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { decodeRecording, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
+import { decodeRecording, recordedAtFromMetadata, recordingWarnings, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
 import type { AnalysisPool } from './analysis-pool.js';
 import { softwareVersion, type analyse, type RecordingAnalysis } from './analysis.js';
 import { evaluateAlarms } from './alarms.js';
@@ -37,12 +37,8 @@ export interface UploadInput {
   idempotencyKey: string | null;
   recordedAt: Date | null;
   speedRpm: number | null;
-  /** Unit for channels whose file names none (raw floats, float WAV): the point's unit. */
-  defaultUnit: string | null;
 }
 
-/** Units a decoder reports when the file does not say. */
-const UNSTATED_UNITS = new Set(['', 'unknown']);
 
 export interface AnalysisSummary {
   analysisId: string;
@@ -51,6 +47,8 @@ export interface AnalysisSummary {
   speedHz: number | null;
   speedSource: string | null;
   topHypotheses: Array<{ fault: string; component: string; score: number; reason: string }>;
+  /** the decoder's warnings about the file, then the analysis's: everything assumed or set aside */
+  warnings: string[];
 }
 
 export interface UploadResult {
@@ -60,7 +58,7 @@ export interface UploadResult {
   timings?: { decodeMs: number; analysisMs: number; storeMs: number };
 }
 
-export function summarise(analysisId: string, a: RecordingAnalysis): AnalysisSummary {
+export function summarise(analysisId: string, a: RecordingAnalysis, metadata: Readonly<Record<string, string>>): AnalysisSummary {
   return {
     analysisId,
     velocityRmsMmPerS: finiteOrNull(a.overall?.velocityRmsMmPerS),
@@ -69,6 +67,7 @@ export function summarise(analysisId: string, a: RecordingAnalysis): AnalysisSum
     speedSource: a.speedSource ?? null,
     // hypotheses come highest score first, so those >= 0.5 lead
     topHypotheses: (a.hypotheses ?? []).slice(0, 5).map((h) => ({ fault: h.fault, component: h.component, score: h.score, reason: h.reason })),
+    warnings: [...recordingWarnings(metadata), ...(a.warnings ?? [])],
   };
 }
 
@@ -128,15 +127,7 @@ function isUniqueViolation(err: unknown): boolean {
 }
 
 function recordedAtOf(input: UploadInput, recording: Recording): Date {
-  if (input.recordedAt) return input.recordedAt;
-  for (const key of ['recordedAt', 'recorded_at', 'startTime', 'start_time', 'timestamp']) {
-    const text = recording.metadata[key];
-    if (text) {
-      const at = new Date(text);
-      if (!Number.isNaN(at.getTime())) return at;
-    }
-  }
-  return new Date();
+  return input.recordedAt ?? recordedAtFromMetadata(recording.metadata) ?? new Date();
 }
 
 async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer): Promise<UploadResult | null> {
@@ -159,7 +150,7 @@ async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer
     body: {
       recordingId: earlier.id,
       duplicate: true,
-      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis) : null,
+      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis, earlier.metadata) : null,
     },
   };
 }
@@ -183,7 +174,8 @@ export async function ingestRecording(
     metadata: decoded.metadata,
     channels: decoded.channels.map((c, i) => ({
       name: c.name,
-      unit: UNSTATED_UNITS.has(c.unit) && input.defaultUnit ? input.defaultUnit : c.unit,
+      // a channel whose file states no unit stays 'unknown': the analysis reads it in the point's unit and says so
+      unit: c.unit,
       samples: stored[i]!,
     })),
   };
@@ -247,7 +239,7 @@ export async function ingestRecording(
       });
       return {
         status: 201 as const,
-        body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis) },
+        body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis, recording.metadata) },
         timings: { decodeMs: t1 - t0, analysisMs: t2 - t1, storeMs: performance.now() - t2 },
       };
     });

@@ -30,6 +30,7 @@ export const analysisSummarySchema = z.object({
   speedHz: z.number().nullable(),
   speedSource: z.string().nullable(),
   topHypotheses: z.array(z.object({ fault: z.string(), component: z.string(), score: z.number(), reason: z.string() })),
+  warnings: z.array(z.string()).describe("What was assumed or set aside: the decoder's warnings, then the analysis's (unit read as the point's, nominal speed used, ...)"),
 });
 
 export const uploadResultSchema = z.object({

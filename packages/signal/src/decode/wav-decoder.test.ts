@@ -191,6 +191,13 @@ describe('decodeWav', () => {
     expect(codeOf(() => decodeWav(stereo, { sensitivity: { fullScaleUnits: 5, unit: '' } }))).toBe('sensitivity_invalid');
   });
 
+  it('refuses an unknown unit as an option or in a sensitivity, even where PCM would not apply it', () => {
+    expect(codeOf(() => decodeWav(scipyInt16, { unit: 'furlongs' }))).toBe('unknown_unit');
+    expect(codeOf(() => decodeWav(scipyFloat32, { unit: 'gg' }))).toBe('unknown_unit');
+    expect(codeOf(() => decodeWav(scipyInt16, { sensitivity: { fullScaleUnits: 50, unit: 'furlongs' } }))).toBe('unknown_unit');
+    expect(decodeWav(scipyFloat32, { unit: 'm/s2' }).channels[0]!.unit).toBe('m/s^2');
+  });
+
   it('warns that a unit without a sensitivity is not applied to PCM', () => {
     const r = decodeWav(scipyInt16, { unit: 'g' });
     expect(r.channels[0].unit).toBe('FS');

@@ -1,5 +1,5 @@
 import fastifyMultipart from '@fastify/multipart';
-import { detectRecordingFormat, SignalInputError, type DecodeHint } from '@kinespec/signal';
+import { detectRecordingFormat, recordingWarnings, SignalInputError, type DecodeHint } from '@kinespec/signal';
 import type { FastifyRequest } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
@@ -102,6 +102,7 @@ const recordingMetaSchema = z.object({
   sourceFormat: z.string(),
   speedRpm: z.number().nullable(),
   metadata: z.record(z.string(), z.string()),
+  warnings: z.array(z.string()).describe("The decoder's warnings about the file (metadata.warning, one entry each)"),
 });
 
 export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = async (app, { services }) => {
@@ -186,7 +187,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       ...(q.filename ?? filename ? { filename: q.filename ?? filename } : {}),
       ...(q.sampleRateHz !== undefined ? { sampleRateHz: q.sampleRateHz } : {}),
       ...(q.channels !== undefined ? { channels: q.channels } : {}),
-      // an explicit unit overrides the file's; the point's unit only fills in where the file names none
+      // an explicit unit overrides the file's; where neither names one, the analysis reads the point's unit and warns
       ...(q.unit ? { unit: q.unit } : {}),
     };
     let sourceFormat = 'unknown';
@@ -214,7 +215,6 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       idempotencyKey,
       recordedAt,
       speedRpm: q.speedRpm ?? null,
-      defaultUnit: point.unit,
     });
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
     if (result.timings) {
@@ -292,6 +292,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       sourceFormat: r.sourceFormat,
       speedRpm: r.speedRpm,
       metadata: r.metadata,
+      warnings: recordingWarnings(r.metadata),
     };
   });
 
