@@ -3,7 +3,9 @@ import type { Queryable } from './database.js';
 import { scoreIndicator } from './indicators.js';
 import {
   clearAlarm,
+  clearPointAlarms,
   escalateAlarm,
+  newestRecordingValues,
   newestRecordedAt,
   openAlarms,
   raiseAlarm,
@@ -93,4 +95,17 @@ export async function evaluateAlarms(
       await clearAlarm(tx, a.id, r.recordedAt, 'rule: hypothesis no longer reported');
     }
   }
+}
+
+/**
+ * After a recording left a point (deleted, or moved away or back in time), the point's alarms follow its newest
+ * remaining recording, by the same rule as an upload; a point with no recording left has no open alarm.
+ */
+export async function reevaluatePointAlarms(tx: Queryable, r: { siteId: string; point: PointRow; at: Date; why: string }): Promise<void> {
+  const newest = await newestRecordingValues(tx, r.point.id);
+  if (!newest) {
+    await clearPointAlarms(tx, r.point.id, r.at, `rule: no recording left on the point (${r.why})`);
+    return;
+  }
+  await evaluateAlarms(tx, { siteId: r.siteId, point: r.point, recordingId: newest.recordingId, recordedAt: newest.recordedAt, indicators: newest.indicators });
 }

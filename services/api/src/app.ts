@@ -15,6 +15,7 @@ import { ModelCache } from './model-cache.js';
 import { openApiTransform } from './openapi.js';
 import { problem, problemTypes, problemUri } from './problems.js';
 import { alarmRoutes } from './routes/alarms.js';
+import { correctionRoutes } from './routes/corrections.js';
 import { healthRoutes, type Readiness } from './routes/health.js';
 import { keyRoutes } from './routes/keys.js';
 import { machineRoutes } from './routes/machines.js';
@@ -154,6 +155,7 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
       await api.register(alarmRoutes, { services });
       await api.register(keyRoutes, { services });
       await api.register(signatureRoutes, { services });
+      await api.register(correctionRoutes, { services });
     },
     { prefix: '/api/v1' },
   );

@@ -13,6 +13,7 @@ import {
   insertAnalysis,
   insertRecording,
   lockPoint,
+  setAnalysisChannel,
   modelVersionAt,
   writeTrendValues,
   type ApiKeyRow,
@@ -37,6 +38,8 @@ export interface UploadInput {
   idempotencyKey: string | null;
   recordedAt: Date | null;
   speedRpm: number | null;
+  /** The channel to analyse: a 1-based number or a channel name; null lets the analysis choose. */
+  channel?: string | null;
 }
 
 
@@ -49,6 +52,9 @@ export interface AnalysisSummary {
   topHypotheses: Array<{ fault: string; component: string; score: number; reason: string }>;
   /** the decoder's warnings about the file, then the analysis's: everything assumed or set aside */
   warnings: string[];
+  /** the channel analysed, numbered from 1, and every channel of the recording */
+  analysedChannel: number | null;
+  channels: Array<{ name: string; unit: string }>;
 }
 
 export interface UploadResult {
@@ -58,7 +64,11 @@ export interface UploadResult {
   timings?: { decodeMs: number; analysisMs: number; storeMs: number };
 }
 
-export function summarise(analysisId: string, a: RecordingAnalysis, metadata: Readonly<Record<string, string>>): AnalysisSummary {
+export function summarise(
+  analysisId: string,
+  a: RecordingAnalysis,
+  recording: { metadata: Readonly<Record<string, string>>; channels: ReadonlyArray<{ name: string; unit: string }> },
+): AnalysisSummary {
   return {
     analysisId,
     velocityRmsMmPerS: finiteOrNull(a.overall?.velocityRmsMmPerS),
@@ -67,7 +77,9 @@ export function summarise(analysisId: string, a: RecordingAnalysis, metadata: Re
     speedSource: a.speedSource ?? null,
     // hypotheses come highest score first, so those >= 0.5 lead
     topHypotheses: (a.hypotheses ?? []).slice(0, 5).map((h) => ({ fault: h.fault, component: h.component, score: h.score, reason: h.reason })),
-    warnings: [...recordingWarnings(metadata), ...(a.warnings ?? [])],
+    warnings: [...recordingWarnings(recording.metadata), ...(a.warnings ?? [])],
+    analysedChannel: typeof a.channel === 'number' ? a.channel + 1 : null,
+    channels: recording.channels.map((c) => ({ name: c.name, unit: c.unit })),
   };
 }
 
@@ -126,6 +138,18 @@ function isUniqueViolation(err: unknown): boolean {
   return typeof err === 'object' && err !== null && (err as { code?: string }).code === '23505';
 }
 
+/** The 1-based number of the channel a request names by number or name; the problem lists the channels. */
+export function channelNumber(recording: Recording, selector: string): number {
+  const byName = recording.channels.findIndex((c) => c.name === selector);
+  if (byName >= 0) return byName + 1;
+  const n = Number(selector);
+  if (Number.isInteger(n) && n >= 1 && n <= recording.channels.length) return n;
+  const list = recording.channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ');
+  throw problem('validation-failed', `query.channel: '${selector}' names no channel; the recording has ${list}`, {
+    errors: [{ path: 'query.channel', message: `names no channel; the recording has ${list}` }],
+  });
+}
+
 function recordedAtOf(input: UploadInput, recording: Recording): Date {
   return input.recordedAt ?? recordedAtFromMetadata(recording.metadata) ?? new Date();
 }
@@ -150,7 +174,7 @@ async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer
     body: {
       recordingId: earlier.id,
       duplicate: true,
-      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis, earlier.metadata) : null,
+      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis, earlier) : null,
     },
   };
 }
@@ -179,6 +203,7 @@ export async function ingestRecording(
       samples: stored[i]!,
     })),
   };
+  const channel = input.channel ? channelNumber(recording, input.channel) : null;
   const recordedAt = recordedAtOf(input, recording);
   const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);
   const model = modelVersion === null ? null : await models.get(sql, input.machine.id, modelVersion);
@@ -188,6 +213,7 @@ export async function ingestRecording(
     pointId: input.point.pointKey,
     pointUnit: input.point.unit,
     ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
+    ...(channel !== null ? { channel: channel - 1 } : {}),
   });
   const resultJson = storedAnalysisJson(analysis);
   const t2 = performance.now();
@@ -210,6 +236,7 @@ export async function ingestRecording(
         metadata: recording.metadata,
         uploadedBy: input.key.id,
       });
+      if (channel !== null) await setAnalysisChannel(tx, recordingId, channel);
       const stored = await insertAnalysis(tx, {
         recordingId,
         modelVersion,
@@ -239,7 +266,7 @@ export async function ingestRecording(
       });
       return {
         status: 201 as const,
-        body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis, recording.metadata) },
+        body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis, recording) },
         timings: { decodeMs: t1 - t0, analysisMs: t2 - t1, storeMs: performance.now() - t2 },
       };
     });

@@ -23,6 +23,7 @@ const general = [
   { slug: 'forbidden', status: 403, title: "The key's role does not allow this" },
   { slug: 'not-found', status: 404, title: 'No such resource on this site' },
   { slug: 'idempotency-key-reused', status: 409, title: 'The Idempotency-Key was already used for different content' },
+  { slug: 'conflict', status: 409, title: 'The change clashes with what is stored' },
   { slug: 'payload-too-large', status: 413, title: 'The request body is larger than the service accepts' },
   { slug: 'unsupported-media-type', status: 415, title: 'The content type is not one the route accepts' },
   { slug: 'invalid-machine-model', status: 422, title: 'The machine model file has problems' },

@@ -47,6 +47,7 @@ const uploadQuery = z.object({
   recordedAt: isoTime.optional().describe('When the recording was taken (default: the file metadata, else now)'),
   speedRpm: z.coerce.number().positive().finite().optional().describe('Speed of the reference shaft, when known'),
   filename: z.string().max(255).optional(),
+  channel: z.string().min(1).max(100).optional().describe('The channel to analyse: a number from 1 or a channel name (default: the first vibration channel)'),
 });
 
 type UploadParams = z.infer<typeof uploadQuery>;
@@ -59,6 +60,7 @@ const HEADER_FIELDS: Array<[keyof UploadParams, string]> = [
   ['recordedAt', 'x-recorded-at'],
   ['speedRpm', 'x-speed-rpm'],
   ['filename', 'x-filename'],
+  ['channel', 'x-channel'],
 ];
 
 /** Header values (X-Sample-Rate-Hz ...) fill what the query leaves out; both are checked by the same schema. */
@@ -215,6 +217,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       idempotencyKey,
       recordedAt,
       speedRpm: q.speedRpm ?? null,
+      channel: q.channel ?? null,
     });
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
     if (result.timings) {
