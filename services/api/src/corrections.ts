@@ -1,10 +1,10 @@
 import type { Recording } from '@kinespec/signal';
 import { actorName } from './auth.js';
 import { reevaluatePointAlarms } from './alarms.js';
-import { softwareVersion, type RecordingAnalysis } from './analysis.js';
+import type { RecordingAnalysis } from './analysis.js';
 import type { AnalysisPool } from './analysis-pool.js';
 import type { Queryable, Sql } from './database.js';
-import { finite, runAnalysis, storedAnalysisJson, summarise, type AnalysisSummary } from './ingest.js';
+import { insertCurrentAnalysis, runAnalysis, summarise, type AnalysisSummary } from './ingest.js';
 import type { ModelCache } from './model-cache.js';
 import { problem } from './problems.js';
 import { unpackSamples } from './samples-codec.js';
@@ -16,7 +16,6 @@ import {
   getPointById,
   getRecording,
   getRecordingSamples,
-  insertAnalysis,
   insertAuditEntry,
   lockPoint,
   modelVersionAt,
@@ -121,7 +120,6 @@ export async function moveRecording(services: CorrectionServices, key: ApiKeyRow
     ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
     ...(channel !== null ? { channel: channel - 1 } : {}),
   });
-  const top = analysis.hypotheses[0];
 
   return sql.begin(async (tx) => {
     await lockPoints(tx, [row.pointId, to.id]);
@@ -137,17 +135,7 @@ export async function moveRecording(services: CorrectionServices, key: ApiKeyRow
       }
       throw err;
     }
-    const stored = await insertAnalysis(tx, {
-      recordingId: row.id,
-      modelVersion,
-      softwareVersion: analysis.softwareVersion ?? softwareVersion(),
-      speedHz: finite(analysis.speedHz),
-      speedSource: analysis.speedSource,
-      velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
-      zone: analysis.overall.zone,
-      topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-      resultJson: storedAnalysisJson(analysis),
-    });
+    const stored = await insertCurrentAnalysis(tx, { recordingId: row.id, modelVersion, analysis });
     // the values move with the recording (writeTrendValues replaces them and rolls up the new day); the day left behind is rebuilt
     await writeTrendValues(tx, { pointId: to.id, recordingId: row.id, analysisId: stored.id, recordedAt, indicators: analysis.indicators });
     await rebuildTrendDay(tx, row.pointId, row.recordedAt);

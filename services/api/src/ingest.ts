@@ -3,7 +3,7 @@ import { decodeRecording, recordedAtFromMetadata, recordingWarnings, SignalInput
 import type { AnalysisPool } from './analysis-pool.js';
 import { softwareVersion, type analyse, type RecordingAnalysis } from './analysis.js';
 import { evaluateAlarms } from './alarms.js';
-import type { Sql } from './database.js';
+import type { Queryable, Sql } from './database.js';
 import type { ModelCache } from './model-cache.js';
 import { problem, ProblemError, recordingProblem } from './problems.js';
 import { packSamples, unpackSamples } from './samples-codec.js';
@@ -108,6 +108,25 @@ export async function runAnalysis(pool: AnalysisPool, recording: Recording, opti
     }
     throw err;
   }
+}
+
+/** Stores an analysis as its recording's current one, with the columns the lists read. */
+export async function insertCurrentAnalysis(
+  tx: Queryable,
+  a: { recordingId: string; modelVersion: number | null; analysis: RecordingAnalysis; resultJson?: string },
+): Promise<{ id: string; createdAt: Date }> {
+  const top = a.analysis.hypotheses[0];
+  return insertAnalysis(tx, {
+    recordingId: a.recordingId,
+    modelVersion: a.modelVersion,
+    softwareVersion: a.analysis.softwareVersion ?? softwareVersion(),
+    speedHz: finite(a.analysis.speedHz),
+    speedSource: a.analysis.speedSource,
+    velocityRmsMmPerS: finite(a.analysis.overall.velocityRmsMmPerS),
+    zone: a.analysis.overall.zone,
+    topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
+    resultJson: a.resultJson ?? storedAnalysisJson(a.analysis),
+  });
 }
 
 /** Significant digits kept of the plot spectra and evidence in a stored analysis. */
@@ -217,7 +236,6 @@ export async function ingestRecording(
   });
   const resultJson = storedAnalysisJson(analysis);
   const t2 = performance.now();
-  const top = analysis.hypotheses[0];
 
   try {
     return await sql.begin(async (tx) => {
@@ -237,17 +255,7 @@ export async function ingestRecording(
         uploadedBy: input.key.id,
       });
       if (channel !== null) await setAnalysisChannel(tx, recordingId, channel);
-      const stored = await insertAnalysis(tx, {
-        recordingId,
-        modelVersion,
-        softwareVersion: analysis.softwareVersion ?? softwareVersion(),
-        speedHz: finite(analysis.speedHz),
-        speedSource: analysis.speedSource,
-        velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
-        zone: analysis.overall.zone,
-        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        resultJson,
-      });
+      const stored = await insertCurrentAnalysis(tx, { recordingId, modelVersion, analysis, resultJson });
       // only the point's roll-up and alarms need one writer at a time; the large rows above do not
       await lockPoint(tx, input.point.id);
       await writeTrendValues(tx, {
