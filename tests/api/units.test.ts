@@ -51,7 +51,7 @@ for (const target of targets) {
       const warnings: string[] = res.json().analysis.warnings;
       expect(warnings[0]).toBe("line 2: '# unti=' is not a key Kinespec reads (did you mean 'unit'?), kept as metadata only");
       // the point's unit (g in the model) was used for the unit-less channel, and the analysis says so
-      expect(warnings.some((w) => /unit 'unknown'.*point's unit 'g'/.test(w)), warnings.join(' | ')).toBe(true);
+      expect(warnings.some((w) => /'unknown'.*point's unit 'g'/.test(w)), warnings.join(' | ')).toBe(true);
       const meta = await svc.app.inject({ method: 'GET', url: `/api/v1/recordings/${res.json().recordingId}`, headers: auth(site.keys.engineer) });
       expect(meta.json().warnings).toEqual([warnings[0]]);
       expect(meta.json().channelInfo).toEqual([{ name: 'acc', unit: 'unknown' }]);

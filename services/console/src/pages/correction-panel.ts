@@ -9,7 +9,7 @@ import { utcInputValue, utcFromInput } from '../utc-time.js';
 // uploaded by mistake. The service re-files its trends and alarms; each change lands in the audit log,
 // which the machine page lists below its alarms.
 
-function describeEntry(e: AuditEntry): string {
+export function describeEntry(e: AuditEntry): string {
   const from = `${e.before.machineId} / ${e.before.pointId} at ${formatDateTime(e.before.recordedAt)}`;
   const what = e.action === 'delete' ? `deleted the recording of ${from}` : `moved the recording of ${from} to ${e.after!.machineId} / ${e.after!.pointId} at ${formatDateTime(e.after!.recordedAt)}`;
   return `${formatDateTime(e.at)} · ${e.by} ${what}${e.reason ? ` · “${e.reason}”` : ''}`;
@@ -60,9 +60,9 @@ export function renderCorrectionForm(host: HTMLElement, ctx: AppContext, recordi
   machineSelect.addEventListener('change', () => void fillPoints());
   confirm.addEventListener('change', () => (deleteButton.disabled = !confirm.checked));
 
+  // the page reloads the point after a change, which redraws this form: the page shows the outcome itself
   const done = (entry: AuditEntry) => {
     clear(outcome);
-    outcome.append(h('p', { class: 'msg msg-note', id: 'correction-done', 'data-action': entry.action }, `Done: ${describeEntry(entry)}.`));
     onDone(entry);
   };
   const failed = (err: unknown) => {
@@ -74,7 +74,11 @@ export function renderCorrectionForm(host: HTMLElement, ctx: AppContext, recordi
     e.preventDefault();
     const at = utcFromInput(atInput.value);
     const body: Record<string, string> = { reason: reasonInput.value.trim() };
-    if (machineSelect.value !== recording.machineId) body.machineId = machineSelect.value;
+    if (!pointSelect.value) {
+      failed(new Error('The points of that machine are still loading; try again in a moment.'));
+      return;
+    }
+    if (machineSelect.value && machineSelect.value !== recording.machineId) body.machineId = machineSelect.value;
     if (pointSelect.value !== recording.pointId || body.machineId) body.pointId = pointSelect.value;
     if (at && at !== new Date(recording.recordedAt).toISOString()) body.recordedAt = at;
     if (!body.pointId && !body.recordedAt) {

@@ -9,7 +9,7 @@ import type { Quantity } from '../spectrum-quantity.js';
 import { zoneBadge } from '../zone-badge.js';
 import { renderAlarmPanel } from './alarm-panel.js';
 import { renderAnalysisView, type AnalysisViewState } from './analysis-view.js';
-import { renderAuditPanel, renderCorrectionForm } from './correction-panel.js';
+import { describeEntry, renderAuditPanel, renderCorrectionForm } from './correction-panel.js';
 import { renderDevelopingPanel } from './developing-panel.js';
 import { renderTrendPanel } from './trend-panel.js';
 
@@ -113,12 +113,14 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
   const recordingId = uid('recording');
   const recordingSelect = h('select', { id: recordingId, class: 'recording-select' });
   const correctionHost = h('div', { class: 'correction-host' });
+  const correctionDone = h('p', { class: 'msg msg-note', id: 'correction-done', role: 'status', hidden: true });
   const recordingsBox = h(
     'div',
     { class: 'panel recordings' },
     h('label', { for: recordingId, class: 'block-label' }, 'Recording'),
     recordingSelect,
     h('p', { class: 'help', id: 'recording-count' }),
+    correctionDone,
     correctionHost,
   );
   const developingHost = h('div', { class: 'machine-developing' });
@@ -197,9 +199,12 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
       remember();
     }, meta);
     if (meta) {
-      renderCorrectionForm(correctionHost, ctx, meta, () => {
+      renderCorrectionForm(correctionHost, ctx, meta, (entry) => {
+        correctionDone.hidden = false;
+        correctionDone.dataset.action = entry.action;
+        correctionDone.textContent = `Done: ${describeEntry(entry)}.`;
         // the recording left this point or this time: show the point again, and the log
-        state.recording = null;
+        state.recording = entry.action === 'move' && entry.after?.pointId === state.point ? entry.recordingId : null;
         void loadPoint();
         void loadAudit();
       });
