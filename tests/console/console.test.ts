@@ -441,7 +441,8 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     await page.reload();
     await page.locator('#up-point option').first().waitFor({ state: 'attached' });
     const sampleRateHz = 25600;
-    const wav = floatWav(sines([[24.5, 0.5], [441, 0.1]], sampleRateHz, 65536), sampleRateHz);
+    // a tone of its own each run, so a kept test database (KINESPEC_CONSOLE_TEST_DATA_DIR) never answers with an earlier upload
+    const wav = floatWav(sines([[24.5, 0.5], [441, 0.1], [1000 + (Date.now() % 997), 0.01]], sampleRateHz, 65536), sampleRateHz);
     await page.locator('#up-recorded-at').fill('2024-01-15T08:30:00');
     await page.locator('#up-files').setInputFiles({ name: 'no-unit.wav', mimeType: 'audio/wav', buffer: wav });
     const item = page.locator('.upload-item[data-file="no-unit.wav"]');
