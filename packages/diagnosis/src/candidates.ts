@@ -64,7 +64,8 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
   // shaftRatios throws MachineModelError for a model the validator rejects, before any prediction.
   const ratio = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
   const pointShaft = point.shaft ?? model.bearings.find((b) => b.id === point.near)?.shaft ?? model.speed.shaft;
-  const bearingGroups = twinBearings(model, point);
+  const bearingGroups = twinBearings(model, point, ratio, pointShaft);
+  const sameSpeedShafts = groupsOf(model.shafts.map((sh) => sh.id), (sh) => (ratio.get(sh) ?? 1).toPrecision(9), (members) => (members.includes(pointShaft) ? pointShaft : members[0]!));
   const out: Candidate[] = [];
   for (const p of predictions(model, point, speedHz)) {
     if ('error' in p) {
@@ -73,11 +74,17 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
     }
     const { candidate: c, signature } = p;
     let twins: string[] = [];
-    if (c.fault === 'unbalance') {
+    if (c.componentKind === 'shaft' || c.componentKind === 'rotor') {
       const rotors = rotorsOn(c.shaft);
-      if (c.componentKind === 'shaft' && rotors.length === 1) continue;
+      // The unbalance of a shaft that carries one rotor is the rotor's; a shaft with several keeps the shaft's.
+      if (c.componentKind === 'shaft' && c.fault === 'unbalance' && rotors.length === 1) continue;
       if (c.componentKind === 'rotor' && rotors.length > 1) continue;
-      twins = c.componentKind === 'rotor' ? [c.shaft] : rotors;
+      // Shafts at the same speed (a 1:1 pair of timing gears) show the same running lines: one report, at the point's shaft.
+      const group = sameSpeedShafts.get(c.shaft)!;
+      if (group.representative !== c.shaft) continue;
+      const others = group.members.filter((m) => m !== c.shaft);
+      const rotorTwins = c.fault === 'unbalance' ? others.flatMap((m) => [...rotorsOn(m), m]) : others;
+      twins = [...(c.componentKind === 'rotor' ? [c.shaft] : c.fault === 'unbalance' ? rotors : []), ...rotorTwins];
     }
     if (c.componentKind === 'bearing') {
       const group = bearingGroups.get(c.component);
@@ -136,17 +143,32 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
   return out;
 }
 
-/** Groups of bearings with the same defect orders on the same shaft, each with the member that stands for it. */
-function twinBearings(model: MachineModel, point: Point): Map<string, { representative: string; members: string[] }> {
+/**
+ * Groups of bearings whose defect lines fall at the same frequencies (the same defect orders on shafts turning at the
+ * same speed), each with the member that stands for it: the bearing the point is near, else one on the point's shaft,
+ * else the first in the model.
+ */
+function twinBearings(model: MachineModel, point: Point, ratio: ReadonlyMap<string, number>, pointShaft: string): Map<string, { representative: string; members: string[] }> {
+  const shaftOf = new Map(model.bearings.map((b) => [b.id, b.shaft]));
+  return groupsOf(
+    model.bearings.map((b) => b.id),
+    (id) => {
+      const b = model.bearings.find((x) => x.id === id)!;
+      const o = bearingFaultOrders(b);
+      const r = ratio.get(b.shaft) ?? 1;
+      return [o.bpfo, o.bpfi, o.bsf, o.ftf].map((x) => (x * r).toPrecision(9)).join('|');
+    },
+    (members) => (members.includes(point.near ?? '') ? point.near! : members.find((m) => shaftOf.get(m) === pointShaft) ?? members[0]!),
+  );
+}
+
+/** Partitions ids by a key, each group with the member `pick` chooses to stand for it. */
+function groupsOf(ids: readonly string[], key: (id: string) => string, pick: (members: string[]) => string): Map<string, { representative: string; members: string[] }> {
   const groups = new Map<string, string[]>();
-  for (const b of model.bearings) {
-    const o = bearingFaultOrders(b);
-    const key = `${b.shaft}|${[o.bpfo, o.bpfi, o.bsf, o.ftf].map((x) => x.toPrecision(9)).join('|')}`;
-    groups.set(key, [...(groups.get(key) ?? []), b.id]);
-  }
+  for (const id of ids) groups.set(key(id), [...(groups.get(key(id)) ?? []), id]);
   const out = new Map<string, { representative: string; members: string[] }>();
   for (const members of groups.values()) {
-    const representative = members.includes(point.near ?? '') ? point.near! : members[0]!;
+    const representative = pick(members);
     for (const m of members) out.set(m, { representative, members });
   }
   return out;

@@ -82,6 +82,7 @@ export interface JudgeInputs {
   speed: GateContext['speed'];
   minSnrDb: number;
   isoAbMmPerS: number;
+  isoBcMmPerS: number;
   baseline: LevelContext['baseline'];
   baselineOrders: LevelContext['baselineOrders'];
   pointUnit: string | null;
@@ -101,6 +102,8 @@ const BEARING_HARMONICS = 10;
  * modulation up to B, and the first harmonics with their sidebands must fit (3 harmonics need 3×, with margin).
  */
 export const BAND_WIDTH_FACTOR = 3.5;
+/** Lines closer than this many bins are not told apart (Hann's 6-dB bandwidth, Harris 1978). */
+const RESOLVABLE_BINS = 2;
 /** A bearing line weaker than this over the envelope floor is no candidate at all (dB). */
 const BEARING_LINE_FLOOR_DB = 3;
 
@@ -125,7 +128,7 @@ export function judgeHypotheses(inputs: JudgeInputs): Judged[] {
     const found = claimShared(combs, searchCombs(combs, inputs.envelope.source, {
       foreignRates: foreignRates(inputs), speedUncertaintyFraction: inputs.envelope.speedUncertaintyFraction,
       slipFraction: BEARING_SLIP_SEARCH, maxHarmonics: BEARING_HARMONICS, minLineSnrDb: BEARING_LINE_FLOOR_DB,
-    }));
+    }), toothFaultLattice(judged, inputs));
     envelopeCandidates.forEach((candidate, i) => {
       const e = found[i]!;
       const j = finish(candidate, combLinesOf(candidate, e, inputs), e.chance, { exclusivity: 1, shape: 1 }, inputs);
@@ -142,15 +145,24 @@ export function judgeHypotheses(inputs: JudgeInputs): Judged[] {
 }
 
 function finish(candidate: Candidate, lines: JudgedLine[], chance: number, rivalry: { exclusivity: number; shape: number }, inputs: JudgeInputs): Judged {
-  const detection = evidenceOf(chance);
+  const detection = candidate.descriptor.evidence === 'chance' ? evidenceOf(chance) : presenceOf(lines);
   const level = clamp01(levelOf(candidate, lines, {
-    model: inputs.model, unit: candidate.domain === 'envelope' ? `${inputs.unit}^2` : inputs.unit, isoAbMmPerS: inputs.isoAbMmPerS, baseline: inputs.baseline,
+    model: inputs.model, unit: candidate.domain === 'envelope' ? `${inputs.unit}^2` : inputs.unit, isoAbMmPerS: inputs.isoAbMmPerS, isoBcMmPerS: inputs.isoBcMmPerS, baseline: inputs.baseline,
     speedHz: inputs.lineSpeedHz, measured: inputs.main, uncertaintyHz: inputs.speedUncertaintyHz, unitHz: inputs.unitHz,
     referenceSpeedHz: inputs.referenceSpeedHz, baselineOrders: inputs.baselineOrders, pointUnit: inputs.pointUnit,
   }));
   const context: GateContext = { candidate, lines, quantity: inputs.quantity, speed: inputs.speed };
   let gate = 1;
   const gateReasons: string[] = [];
+  // Only what the record's resolution can decide: a shaft's lines (its harmonics, its sidebands) must lie further apart
+  // than two tones a Hann window resolves, its 6-dB bandwidth of 2.0 bins (Harris 1978, table 1). A 0.1 s snapshot keeps
+  // its overall levels and the hypotheses its bins can separate.
+  const binHz = candidate.domain === 'envelope' ? null : inputs.main.spectrum.frequencyResolutionHz;
+  const shaftHz = candidate.shaftRatio * inputs.lineSpeedHz;
+  if (binHz !== null && shaftHz < RESOLVABLE_BINS * binHz) {
+    gate *= GATE_CLOSED_FACTOR;
+    gateReasons.push(`the record is too short to separate lines ${(shaftHz * inputs.unitHz).toFixed(1)} Hz apart (bins of ${(binHz * inputs.unitHz).toFixed(1)} Hz)`);
+  }
   for (const name of candidate.descriptor.gates) {
     const r = gates[name](context);
     gate *= r.factor;
@@ -162,6 +174,26 @@ function finish(candidate: Candidate, lines: JudgedLine[], chance: number, rival
   const score = clamp01(detection * (0.5 + 0.5 * parts.shape) * level * parts.exclusivity * support * gate);
   const counted = lines.filter((l) => l.counted && !l.synchronous);
   return { candidate, score, parts, lines, linesFound: counted.filter((l) => l.matched).length, linesCounted: counted.length, gateReasons };
+}
+
+/** SNR (dB) at which a found line counts fully as present; a line at the 6 dB threshold counts a third. */
+const FULL_PRESENCE_DB = 12;
+const PRESENCE_FLOOR_DB = 3;
+
+/**
+ * Presence of a pattern of running lines: Σ wᵢ·dᵢ / Σ wᵢ over the counted lines, wᵢ the predicted amplitude (strong
+ * predicted lines matter most), dᵢ = clamp((SNRᵢ − 3 dB)/9 dB) for a found line (a third at the 6 dB threshold, all
+ * from 12 dB), 0 otherwise.
+ */
+function presenceOf(lines: readonly JudgedLine[]): number {
+  let weights = 0;
+  let present = 0;
+  for (const l of lines) {
+    if (!l.counted) continue;
+    weights += l.predictedAmplitude;
+    if (l.matched && l.snrDb !== null) present += l.predictedAmplitude * clamp01((l.snrDb - PRESENCE_FLOOR_DB) / (FULL_PRESENCE_DB - PRESENCE_FLOOR_DB));
+  }
+  return weights > 0 ? present / weights : 0;
 }
 
 /** The candidate's predicted lines weighed in the ordinary (or order) spectrum. */
@@ -181,6 +213,48 @@ function spectrumLines(candidate: Candidate, inputs: JudgeInputs): { lines: Judg
   return { lines, chance: pattern.chance };
 }
 
+/**
+ * The envelope lines a shown local gear fault explains: a tooth fault strikes once per turn of its gear and modulates
+ * its mesh, whose own running modulation carries the mating gear's shaft too, so the envelope of any band its impacts
+ * ring holds combinations n·f₁ + m·f₂ of the two shafts' rates (sidebands at both shaft speeds: Randall, Vibration-based
+ * Condition Monitoring, 2011, ch. 6, from memory). A bearing pattern read from those lines is the gear fault's, not
+ * a bearing's: they are claimed before any bearing comb (|m| ≤ 3, up to the envelope's reach).
+ */
+function toothFaultLattice(judged: readonly Judged[], inputs: JudgeInputs): Array<{ hz: number; tolerance: number; by: string }> {
+  const out: Array<{ hz: number; tolerance: number; by: string }> = [];
+  const topHz = Math.max(0, ...inputs.envelope!.source.bands.map((b) => b.highHz - b.lowHz));
+  for (const j of judged) {
+    if (j.score < 0.5 || j.candidate.kind !== 'gear' || j.candidate.descriptor.evidence !== 'chance') continue;
+    const f1 = j.candidate.shaftRatio * inputs.lineSpeedHz;
+    const mesh = inputs.model.gearMeshes.find((m) => m.driver.gear === j.candidate.component || m.driven.gear === j.candidate.component);
+    const mate = mesh ? (mesh.driver.gear === j.candidate.component ? mesh.driven : mesh.driver) : null;
+    const mateRatio = mate ? inputs.candidates.find((c) => c.shaft === mate.shaft)?.shaftRatio : undefined;
+    const f2 = mateRatio !== undefined ? mateRatio * inputs.lineSpeedHz : null;
+    const by = `${j.candidate.fault}:${j.candidate.component}`;
+    for (let n = 0; n * f1 <= topHz; n++) {
+      for (let m = -LATTICE_ORDERS; m <= LATTICE_ORDERS; m++) {
+        if (f2 === null && m !== 0) continue;
+        const hz = n * f1 + m * (f2 ?? 0);
+        if (hz <= 0 || hz > topHz) continue;
+        const tolerance = 2 * inputs.speedUncertaintyHz * (n + Math.abs(m)) + LATTICE_TOLERANCE_BINS * bearingResolution(inputs);
+        out.push({ hz, tolerance, by });
+      }
+    }
+  }
+  return out;
+}
+
+/** Orders of the mating shaft's rate combined with the faulty gear's shaft harmonics. */
+const LATTICE_ORDERS = 3;
+/** Half-width of a lattice line, envelope bins (as the foreign harmonics: Hann's 6-dB bandwidth). */
+const LATTICE_TOLERANCE_BINS = 2;
+
+/** The resolution of the envelope spectra searched (the first band's). */
+function bearingResolution(inputs: JudgeInputs): number {
+  const first = inputs.envelope!.source.bands[0];
+  return first ? inputs.envelope!.source.spectrumOf(first)?.spectrum.frequencyResolutionHz ?? 1 : 1;
+}
+
 /** The bearing comb of an envelope candidate, in the spectra's frequency unit. */
 function combOf(candidate: Candidate, inputs: JudgeInputs): BearingComb {
   const rule = candidate.descriptor.comb!;
@@ -188,11 +262,13 @@ function combOf(candidate: Candidate, inputs: JudgeInputs): BearingComb {
   const shaftHz = candidate.shaftRatio * inputs.lineSpeedHz;
   const cageHz = orders.ftf * shaftHz;
   const rateOf = (m: 'shaft' | 'cage') => (m === 'shaft' ? shaftHz : cageHz);
-  const widest = rule.rate === 'ftf' ? Math.max(orders.bpfi, 2 * orders.bsf) : rule.rate === 'bsf' ? 2 * orders.bsf : orders[rule.rate];
+  const rate = orders[rule.rate] * rule.multiple;
+  const widest = rule.rate === 'ftf' ? Math.max(orders.bpfi, 2 * orders.bsf) : rate;
   return {
     key: `${candidate.fault}:${candidate.component}`,
-    defectHz: orders[rule.rate] * shaftHz,
+    defectHz: rate * shaftHz,
     rateLabel: `${rule.rateLabel} ${candidate.component}`,
+    labelMultiple: rule.multiple,
     sidebandHz: rule.sideband ? rateOf(rule.sideband) : null,
     sidebandLabel: rule.sideband === 'shaft' ? `1× ${candidate.shaft}` : rule.sideband === 'cage' ? 'FTF' : null,
     modulationHz: rule.modulation.map(rateOf),

@@ -19,6 +19,7 @@ export interface LevelContext {
   /** Unit of the spectrum's values. */
   unit: string;
   isoAbMmPerS: number;
+  isoBcMmPerS: number;
   baseline: RecordingAnalysis | null;
   /** Speed of the reference shaft in the spectrum's frequency unit (1 in the angle domain). */
   speedHz: number;
@@ -85,14 +86,15 @@ function riseLevel(now: number, then: number): number {
 
 /**
  * Faults that every running machine shows a little of (residual unbalance, 1× and 2×, twice line frequency) count only
- * when their lines carry real vibration: their r.m.s. velocity on a log scale from a quarter of the ISO A/B boundary
- * (nothing) to the boundary itself (all) — ISO 20816-3's boundary between newly commissioned and acceptable machines.
+ * when their lines carry vibration that matters: their r.m.s. velocity on a log scale from the ISO 20816-3 A/B boundary
+ * (nothing: a newly commissioned machine may vibrate that much) to the B/C boundary (all: beyond it the machine is
+ * not fit for unrestricted long-term operation).
  */
 function isoVelocityLevel(matched: readonly LevelLine[], context: LevelContext): number {
   const velocities = matched.map((m) => velocityRmsOfLine(m.measuredAmplitude!, m.measuredHz! * context.unitHz, context.unit));
   const v = Math.sqrt(energy(velocities));
   if (!(v > 0)) return 0;
-  return clamp01(Math.log(v / (0.25 * context.isoAbMmPerS)) / Math.log(4));
+  return clamp01(Math.log(v / context.isoAbMmPerS) / Math.log(context.isoBcMmPerS / context.isoAbMmPerS));
 }
 
 /**

@@ -116,7 +116,6 @@ export async function moveRecording(services: CorrectionServices, key: ApiKeyRow
   const analysis: RecordingAnalysis = await runAnalysis(pool, recording, {
     model,
     pointId: to.pointKey,
-    pointUnit: to.unit,
     ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
     ...(channel !== null ? { channel: channel - 1 } : {}),
   });

@@ -230,7 +230,6 @@ export async function ingestRecording(
   const analysis = await runAnalysis(pool, recording, {
     model,
     pointId: input.point.pointKey,
-    pointUnit: input.point.unit,
     ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
     ...(channel !== null ? { channel: channel - 1 } : {}),
   });

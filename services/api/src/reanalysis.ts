@@ -57,7 +57,6 @@ export async function reanalyseMachine(
       analysis = await runAnalysis(pool, recording, {
         model,
         pointId: point.pointKey,
-        pointUnit: point.unit,
         ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
         ...(channel !== null ? { channel: channel - 1 } : {}),
       });

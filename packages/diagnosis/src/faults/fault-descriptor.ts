@@ -10,6 +10,8 @@ export type BearingRate = keyof BearingFaultOrders;
  */
 export interface BearingCombRule {
   rate: BearingRate;
+  /** The comb's spacing is this multiple of the rate (2 for a rolling element, which meets both races each spin). */
+  multiple: number;
   /** Short name of the rate in evidence labels. */
   rateLabel: string;
   /** Sidebands that are evidence (inner race: the shaft, by the load zone; rolling element: the cage). */
@@ -53,6 +55,13 @@ export interface FaultDescriptor {
   domain: 'spectrum' | 'envelope';
   /** Lines a healthy machine shows anyway that this kind still owns (unbalance its 1×, wear its mesh harmonics). */
   ownsRunningLines: boolean;
+  /**
+   * How the lines are judged found. 'chance': by how unlikely the pattern is in this spectrum (a defect's lines are
+   * not there on a healthy machine, so their presence is the evidence). 'presence': by standing clear of the floor
+   * (lines every running machine shows — 1×, 2×, mesh harmonics — are no surprise; how big they are is the question,
+   * which the level answers).
+   */
+  evidence: 'chance' | 'presence';
   /** Options of the prediction (@kinespec/signatures predictSignature) beyond fault, component, speed and point. */
   prediction?: { depthFraction?: number; rippleFraction?: number };
   /** The bearing comb, for envelope faults. */
