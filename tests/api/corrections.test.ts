@@ -141,7 +141,8 @@ for (const target of targets) {
     });
 
     it('takes an alarm along when the recording that raised it moves: cleared where it left, raised where it is newest now', async () => {
-      await upload('loud', '2025-03-20T08:00:00Z', 5.0);
+      // 6 mm/s is over both points' trip levels (mixer C/D 4.5; pump-de-h's own 5.6), which the rule raises at once
+      await upload('loud', '2025-03-20T08:00:00Z', 6.0);
       expect((await openAlarms(POINT)).map((a: { level: string }) => a.level)).toEqual(['trip']);
       const res = await request('PATCH', `/api/v1/recordings/${ids.loud}`, site.keys.engineer, { machineId: PUMP, pointId: 'pump-de-h', reason: 'pump reading' });
       expect(res.statusCode, res.body).toBe(200);

@@ -10,6 +10,7 @@ import { problem } from './problems.js';
 import { unpackSamples } from './samples-codec.js';
 import {
   analysisChannelOf,
+  clearAlarmsRaisedBy,
   deleteRecordingRow,
   findMachine,
   findPoint,
@@ -59,10 +60,14 @@ export async function deleteRecording(
   return sql.begin(async (tx) => {
     await lockPoints(tx, [row.pointId]);
     const before = await recordingIdentity(tx, row.id);
-    if (!before || !(await deleteRecordingRow(tx, row.id))) throw problem('not-found', `no recording '${recordingId}' on this site`);
-    await rebuildTrendDay(tx, row.pointId, row.recordedAt);
+    if (!before) throw problem('not-found', `no recording '${recordingId}' on this site`);
     const now = new Date();
-    await reevaluatePointAlarms(tx, { siteId: key.siteId, point, at: now, why: `recording ${row.id} deleted` });
+    const why = `recording ${row.id} deleted`;
+    // the alarms it raised are withdrawn while they still name it (deleting sets their recording to null)
+    await clearAlarmsRaisedBy(tx, row.pointId, row.id, now, `correction: ${why}`);
+    if (!(await deleteRecordingRow(tx, row.id))) throw problem('not-found', `no recording '${recordingId}' on this site`);
+    await rebuildTrendDay(tx, row.pointId, row.recordedAt);
+    await reevaluatePointAlarms(tx, { siteId: key.siteId, point, at: now, why });
     return insertAuditEntry(tx, { siteId: key.siteId, recordingId: row.id, action: 'delete', byKeyId: key.id, by: actorName(key), reason, before, after: null });
   });
 }
@@ -140,7 +145,7 @@ export async function moveRecording(services: CorrectionServices, key: ApiKeyRow
     await rebuildTrendDay(tx, row.pointId, row.recordedAt);
     const now = new Date();
     const why = `recording ${row.id} moved to ${machineKey}/${pointKey} at ${recordedAt.toISOString()}`;
-    await reevaluatePointAlarms(tx, { siteId: key.siteId, point: from, at: now, why });
+    await reevaluatePointAlarms(tx, { siteId: key.siteId, point: from, at: now, why, leftRecordingId: row.id });
     if (to.id !== from.id) await reevaluatePointAlarms(tx, { siteId: key.siteId, point: to, at: now, why });
     const audit = await insertAuditEntry(tx, {
       siteId: key.siteId,

@@ -876,3 +876,11 @@ export async function listAuditEntries(
     order by at desc, id desc
     limit ${q.limit}`;
 }
+
+/** Clears the open alarms of a point that a recording raised (or last escalated); returns how many. */
+export async function clearAlarmsRaisedBy(tx: Queryable, pointId: number, recordingId: string, at: Date, by: string): Promise<number> {
+  const cleared = await tx`
+    update alarms set cleared_at = ${at}, cleared_by = ${by}
+    where point_id = ${pointId} and recording_id = ${recordingId} and cleared_at is null`;
+  return cleared.count;
+}
