@@ -31,7 +31,7 @@ export interface CombSearchOptions {
    * Rates whose harmonics belong to something else: every shaft of the machine (a once-per-revolution impact fills the
    * envelope with its shaft's comb) and the motor's line frequency (electrical forces and pick-up at its multiples).
    */
-  foreignRates: ReadonlyArray<{ rateHz: number; relativeUncertainty: number }>;
+  foreignRates: ReadonlyArray<ForeignRate>;
   /** Relative standard uncertainty of the speed (0 in the angle domain). */
   speedUncertaintyFraction: number;
   /** Largest relative departure of the defect rate from the kinematic one searched (slip). */
@@ -40,6 +40,16 @@ export interface CombSearchOptions {
   maxHarmonics: number;
   /** Lines weaker than this over the floor are not candidates at all (dB). */
   minLineSnrDb: number;
+}
+
+/**
+ * A rate whose harmonics belong to something else, each harmonic h·rate shifted by every one of `offsetsHz` (a gear
+ * mesh's lattice n·f₁ + m·f₂: offsets m·f₂), known to a relative standard uncertainty.
+ */
+export interface ForeignRate {
+  rateHz: number;
+  relativeUncertainty: number;
+  offsetsHz?: readonly number[];
 }
 
 export interface CombLine {
@@ -396,8 +406,8 @@ function modulationRate(measured: MatchableSpectrum, rateHz: number, own: Uint8A
  * comb must; the first LOW_HARMONICS harmonics are the shaft's own lines wherever a peak stands on them. Rates so slow that their zones would cover a third of the axis cannot be told from anything by position:
  * their comb, if present, is clutter that the chance neighbourhoods weigh instead. Memoized per spectrum and rates.
  */
-function foreignHarmonicBins(measured: MatchableSpectrum, rates: ReadonlyArray<{ rateHz: number; relativeUncertainty: number }>): Uint8Array {
-  const key = rates.map((r) => `${r.rateHz}±${r.relativeUncertainty}`).join(',');
+function foreignHarmonicBins(measured: MatchableSpectrum, rates: ReadonlyArray<ForeignRate>): Uint8Array {
+  const key = rates.map((r) => `${r.rateHz}±${r.relativeUncertainty}+${(r.offsetsHz ?? [0]).join('/')}`).join(',');
   let memo = foreignMemo.get(measured);
   if (!memo) {
     memo = new Map();
@@ -417,29 +427,35 @@ function foreignHarmonicBins(measured: MatchableSpectrum, rates: ReadonlyArray<{
     }
   }
   const out = new Uint8Array(n);
-  for (const { rateHz, relativeUncertainty } of rates) {
+  for (const { rateHz, relativeUncertainty, offsetsHz } of rates) {
+    // A rate so slow that its harmonics' zones would cover a third of the axis cannot be told from anything by
+    // position: its comb, if present, is clutter that the chance neighbourhoods weigh instead.
     if (!(rateHz >= DENSE_RATE_FACTOR * 2 * SYNC_BINS * df)) continue;
-    const zones: Array<[number, number]> = [];
-    let carrying = 0;
-    let zoneBins = 0;
-    for (let h = 1; h * rateHz <= (n - 1) * df; h++) {
-      const c = (h * rateHz) / df;
-      const half = SYNC_BINS + (3 * relativeUncertainty * h * rateHz) / df;
-      const a = Math.max(0, Math.ceil(c - half));
-      const b = Math.min(n - 1, Math.floor(c + half));
-      zones.push([a, b]);
-      zoneBins += b - a + 1;
-      for (let k = a; k <= b; k++) if (isPeak[k]) { carrying++; break; }
+    for (const offset of offsetsHz ?? [0]) {
+      const zones: Array<[number, number]> = [];
+      let carrying = 0;
+      let zoneBins = 0;
+      for (let h = offset === 0 ? 1 : 0; h * rateHz + offset <= (n - 1) * df; h++) {
+        const f = h * rateHz + offset;
+        if (f <= 0) continue;
+        const c = f / df;
+        const half = SYNC_BINS + (3 * relativeUncertainty * (h * rateHz + Math.abs(offset))) / df;
+        const a = Math.max(0, Math.ceil(c - half));
+        const b = Math.min(n - 1, Math.floor(c + half));
+        zones.push([a, b]);
+        zoneBins += b - a + 1;
+        for (let k = a; k <= b; k++) if (isPeak[k]) { carrying++; break; }
+      }
+      if (zones.length === 0) continue;
+      const expected = Math.min(1, (peaks / n) * (zoneBins / zones.length));
+      const combShown = carrying / zones.length >= Math.max(MIN_COMB_SHARE, 2 * expected);
+      zones.forEach(([a, b], i) => {
+        // The first harmonics of a running shaft are its own lines wherever they carry a peak, comb or no comb.
+        let carries = false;
+        for (let k = a; k <= b && !carries; k++) if (isPeak[k]) carries = true;
+        if (combShown || (i < LOW_HARMONICS && carries)) for (let k = a; k <= b; k++) out[k] = 1;
+      });
     }
-    if (zones.length === 0) continue;
-    const expected = Math.min(1, (peaks / n) * (zoneBins / zones.length));
-    const combShown = carrying / zones.length >= Math.max(MIN_COMB_SHARE, 2 * expected);
-    zones.forEach(([a, b], i) => {
-      // The first harmonics of a running shaft are its own lines wherever they carry a peak, comb or no comb.
-      let carries = false;
-      for (let k = a; k <= b && !carries; k++) if (isPeak[k]) carries = true;
-      if (combShown || (i < LOW_HARMONICS && carries)) for (let k = a; k <= b; k++) out[k] = 1;
-    });
   }
   memo.set(key, out);
   return out;
