@@ -7,14 +7,17 @@ import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { LogController, type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { AnalysisPool } from './analysis-pool.js';
+import { BRAND_LOGO_SVG, BRAND_MARK_SVG, BRAND_NAME } from './brand.js';
 import { authenticate, authorise, bearerToken, type Permission } from './auth.js';
 import type { ServiceConfig } from './config.js';
 import type { Sql } from './database.js';
+import type { DemoStatus } from './demo-seed.js';
 import { registerProblemHandlers } from './http-errors.js';
 import { ModelCache } from './model-cache.js';
 import { openApiTransform } from './openapi.js';
 import { problem, problemTypes, problemUri } from './problems.js';
 import { alarmRoutes } from './routes/alarms.js';
+import { correctionRoutes } from './routes/corrections.js';
 import { healthRoutes, type Readiness } from './routes/health.js';
 import { keyRoutes } from './routes/keys.js';
 import { machineRoutes } from './routes/machines.js';
@@ -45,6 +48,8 @@ export interface Services {
   models: ModelCache;
   analysis: AnalysisPool;
   config: AppConfig;
+  /** The demo's progress while its recordings go in, null when there is no demo being seeded by this process. */
+  demoStatus: () => DemoStatus | null;
 }
 
 export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'> &
@@ -56,6 +61,7 @@ export interface BuildAppOptions {
   /** A pino logger, or false for none (tests). */
   logger?: FastifyBaseLogger | false;
   readiness?: Readiness;
+  demoStatus?: () => DemoStatus | null;
 }
 
 /** Builds the HTTP application (not listening). */
@@ -82,6 +88,7 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     models: new ModelCache(),
     analysis: new AnalysisPool(options.config.analysisThreads ?? 0),
     config: options.config,
+    demoStatus: options.demoStatus ?? (() => null),
   };
   app.addHook('onClose', async () => services.analysis.close());
 
@@ -111,7 +118,19 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     },
     transform: openApiTransform,
   });
-  await app.register(fastifySwaggerUi, { routePrefix: '/docs' });
+  // the documentation under Kinespec's own name and mark, not the framework's
+  await app.register(fastifySwaggerUi, {
+    routePrefix: '/docs',
+    logo: { type: 'image/svg+xml', content: Buffer.from(BRAND_LOGO_SVG), href: '/docs', target: '_self' },
+    theme: {
+      title: `${BRAND_NAME} API documentation`,
+      favicon: [{ filename: 'favicon.svg', rel: 'icon', sizes: 'any', type: 'image/svg+xml', content: Buffer.from(BRAND_MARK_SVG) }],
+      css: [{ filename: 'kinespec.css', content: '.swagger-ui .topbar { background-color: #1c2530; }' }],
+    },
+  });
+  app.get('/favicon.svg', { schema: { hide: true } }, async (_request, reply) =>
+    reply.type('image/svg+xml').header('cache-control', 'public, max-age=86400').send(BRAND_MARK_SVG),
+  );
 
   if (options.config.rateLimitMax > 0) {
     await app.register(fastifyRateLimit, {
@@ -154,6 +173,7 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
       await api.register(alarmRoutes, { services });
       await api.register(keyRoutes, { services });
       await api.register(signatureRoutes, { services });
+      await api.register(correctionRoutes, { services });
     },
     { prefix: '/api/v1' },
   );

@@ -15,13 +15,14 @@ import { findApiKey, type ApiKeyRow, type Role } from './store.js';
 
 export const roles = ['logger', 'engineer', 'admin'] as const satisfies readonly Role[];
 
-export type Permission = 'upload' | 'read' | 'acknowledge' | 'manage' | 'site';
+export type Permission = 'upload' | 'read' | 'acknowledge' | 'correct' | 'manage' | 'site';
 
 const allowed: Record<Permission, readonly Role[]> = {
   site: ['logger', 'engineer', 'admin'],
   upload: ['logger', 'engineer', 'admin'],
   read: ['engineer', 'admin'],
   acknowledge: ['engineer', 'admin'],
+  correct: ['engineer', 'admin'],
   manage: ['admin'],
 };
 
@@ -67,6 +68,7 @@ function describe(permission: Permission): string {
     case 'upload': return 'upload recordings';
     case 'read': return 'read machines, recordings, trends or alarms';
     case 'acknowledge': return 'acknowledge alarms';
+    case 'correct': return 'delete or move recordings';
     case 'manage': return 'manage machines, models or keys';
     case 'site': return 'read the site';
   }

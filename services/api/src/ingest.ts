@@ -1,9 +1,9 @@
 import { createHash } from 'node:crypto';
-import { decodeRecording, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
+import { decodeRecording, recordedAtFromMetadata, recordingWarnings, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
 import type { AnalysisPool } from './analysis-pool.js';
 import { softwareVersion, type analyse, type RecordingAnalysis } from './analysis.js';
 import { evaluateAlarms } from './alarms.js';
-import type { Sql } from './database.js';
+import type { Queryable, Sql } from './database.js';
 import type { ModelCache } from './model-cache.js';
 import { problem, ProblemError, recordingProblem } from './problems.js';
 import { packSamples, unpackSamples } from './samples-codec.js';
@@ -13,6 +13,7 @@ import {
   insertAnalysis,
   insertRecording,
   lockPoint,
+  setAnalysisChannel,
   modelVersionAt,
   writeTrendValues,
   type ApiKeyRow,
@@ -37,12 +38,10 @@ export interface UploadInput {
   idempotencyKey: string | null;
   recordedAt: Date | null;
   speedRpm: number | null;
-  /** Unit for channels whose file names none (raw floats, float WAV): the point's unit. */
-  defaultUnit: string | null;
+  /** The channel to analyse: a 1-based number or a channel name; null lets the analysis choose. */
+  channel?: string | null;
 }
 
-/** Units a decoder reports when the file does not say. */
-const UNSTATED_UNITS = new Set(['', 'unknown']);
 
 export interface AnalysisSummary {
   analysisId: string;
@@ -51,6 +50,11 @@ export interface AnalysisSummary {
   speedHz: number | null;
   speedSource: string | null;
   topHypotheses: Array<{ fault: string; component: string; score: number; reason: string }>;
+  /** the decoder's warnings about the file, then the analysis's: everything assumed or set aside */
+  warnings: string[];
+  /** the channel analysed, numbered from 1, and every channel of the recording */
+  analysedChannel: number | null;
+  channels: Array<{ name: string; unit: string }>;
 }
 
 export interface UploadResult {
@@ -60,7 +64,11 @@ export interface UploadResult {
   timings?: { decodeMs: number; analysisMs: number; storeMs: number };
 }
 
-export function summarise(analysisId: string, a: RecordingAnalysis): AnalysisSummary {
+export function summarise(
+  analysisId: string,
+  a: RecordingAnalysis,
+  recording: { metadata: Readonly<Record<string, string>>; channels: ReadonlyArray<{ name: string; unit: string }> },
+): AnalysisSummary {
   return {
     analysisId,
     velocityRmsMmPerS: finiteOrNull(a.overall?.velocityRmsMmPerS),
@@ -69,6 +77,9 @@ export function summarise(analysisId: string, a: RecordingAnalysis): AnalysisSum
     speedSource: a.speedSource ?? null,
     // hypotheses come highest score first, so those >= 0.5 lead
     topHypotheses: (a.hypotheses ?? []).slice(0, 5).map((h) => ({ fault: h.fault, component: h.component, score: h.score, reason: h.reason })),
+    warnings: [...recordingWarnings(recording.metadata), ...(a.warnings ?? [])],
+    analysedChannel: typeof a.channel === 'number' ? a.channel + 1 : null,
+    channels: recording.channels.map((c) => ({ name: c.name, unit: c.unit })),
   };
 }
 
@@ -99,6 +110,25 @@ export async function runAnalysis(pool: AnalysisPool, recording: Recording, opti
   }
 }
 
+/** Stores an analysis as its recording's current one, with the columns the lists read. */
+export async function insertCurrentAnalysis(
+  tx: Queryable,
+  a: { recordingId: string; modelVersion: number | null; analysis: RecordingAnalysis; resultJson?: string },
+): Promise<{ id: string; createdAt: Date }> {
+  const top = a.analysis.hypotheses[0];
+  return insertAnalysis(tx, {
+    recordingId: a.recordingId,
+    modelVersion: a.modelVersion,
+    softwareVersion: a.analysis.softwareVersion ?? softwareVersion(),
+    speedHz: finite(a.analysis.speedHz),
+    speedSource: a.analysis.speedSource,
+    velocityRmsMmPerS: finite(a.analysis.overall.velocityRmsMmPerS),
+    zone: a.analysis.overall.zone,
+    topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
+    resultJson: a.resultJson ?? storedAnalysisJson(a.analysis),
+  });
+}
+
 /** Significant digits kept of the plot spectra and evidence in a stored analysis. */
 export const STORED_SIGNIFICANT_DIGITS = 6;
 
@@ -127,16 +157,20 @@ function isUniqueViolation(err: unknown): boolean {
   return typeof err === 'object' && err !== null && (err as { code?: string }).code === '23505';
 }
 
+/** The 1-based number of the channel a request names by number or name; the problem lists the channels. */
+export function channelNumber(recording: Recording, selector: string): number {
+  const byName = recording.channels.findIndex((c) => c.name === selector);
+  if (byName >= 0) return byName + 1;
+  const n = Number(selector);
+  if (Number.isInteger(n) && n >= 1 && n <= recording.channels.length) return n;
+  const list = recording.channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ');
+  throw problem('validation-failed', `query.channel: '${selector}' names no channel; the recording has ${list}`, {
+    errors: [{ path: 'query.channel', message: `names no channel; the recording has ${list}` }],
+  });
+}
+
 function recordedAtOf(input: UploadInput, recording: Recording): Date {
-  if (input.recordedAt) return input.recordedAt;
-  for (const key of ['recordedAt', 'recorded_at', 'startTime', 'start_time', 'timestamp']) {
-    const text = recording.metadata[key];
-    if (text) {
-      const at = new Date(text);
-      if (!Number.isNaN(at.getTime())) return at;
-    }
-  }
-  return new Date();
+  return input.recordedAt ?? recordedAtFromMetadata(recording.metadata) ?? new Date();
 }
 
 async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer): Promise<UploadResult | null> {
@@ -159,7 +193,7 @@ async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer
     body: {
       recordingId: earlier.id,
       duplicate: true,
-      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis) : null,
+      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis, earlier) : null,
     },
   };
 }
@@ -183,10 +217,12 @@ export async function ingestRecording(
     metadata: decoded.metadata,
     channels: decoded.channels.map((c, i) => ({
       name: c.name,
-      unit: UNSTATED_UNITS.has(c.unit) && input.defaultUnit ? input.defaultUnit : c.unit,
+      // a channel whose file states no unit stays 'unknown': the analysis reads it in the point's unit and says so
+      unit: c.unit,
       samples: stored[i]!,
     })),
   };
+  const channel = input.channel ? channelNumber(recording, input.channel) : null;
   const recordedAt = recordedAtOf(input, recording);
   const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);
   const model = modelVersion === null ? null : await models.get(sql, input.machine.id, modelVersion);
@@ -195,10 +231,10 @@ export async function ingestRecording(
     model,
     pointId: input.point.pointKey,
     ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
+    ...(channel !== null ? { channel: channel - 1 } : {}),
   });
   const resultJson = storedAnalysisJson(analysis);
   const t2 = performance.now();
-  const top = analysis.hypotheses[0];
 
   try {
     return await sql.begin(async (tx) => {
@@ -217,17 +253,8 @@ export async function ingestRecording(
         metadata: recording.metadata,
         uploadedBy: input.key.id,
       });
-      const stored = await insertAnalysis(tx, {
-        recordingId,
-        modelVersion,
-        softwareVersion: analysis.softwareVersion ?? softwareVersion(),
-        speedHz: finite(analysis.speedHz),
-        speedSource: analysis.speedSource,
-        velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
-        zone: analysis.overall.zone,
-        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        resultJson,
-      });
+      if (channel !== null) await setAnalysisChannel(tx, recordingId, channel);
+      const stored = await insertCurrentAnalysis(tx, { recordingId, modelVersion, analysis, resultJson });
       // only the point's roll-up and alarms need one writer at a time; the large rows above do not
       await lockPoint(tx, input.point.id);
       await writeTrendValues(tx, {
@@ -246,7 +273,7 @@ export async function ingestRecording(
       });
       return {
         status: 201 as const,
-        body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis) },
+        body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis, recording) },
         timings: { decodeMs: t1 - t0, analysisMs: t2 - t1, storeMs: performance.now() - t2 },
       };
     });

@@ -8,6 +8,7 @@ import type { ModelCache } from './model-cache.js';
 import { problem } from './problems.js';
 import { unpackSamples } from './samples-codec.js';
 import {
+  analysisChannelOf,
   getPointById,
   getRecording,
   getRecordingSamples,
@@ -51,7 +52,14 @@ export async function reanalyseMachine(
     };
     let analysis: RecordingAnalysis;
     try {
-      analysis = await runAnalysis(pool, recording, { model, pointId: point.pointKey, ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}) });
+      // the channel an upload chose (1-based in the store) is analysed again
+      const channel = await analysisChannelOf(sql, id);
+      analysis = await runAnalysis(pool, recording, {
+        model,
+        pointId: point.pointKey,
+        ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
+        ...(channel !== null ? { channel: channel - 1 } : {}),
+      });
     } catch (err) {
       failed.push({ recordingId: id, reason: err instanceof Error ? err.message : String(err) });
       continue;

@@ -754,3 +754,133 @@ export async function acknowledgeAlarm(sql: Queryable, siteId: string, alarmId: 
 export async function ping(sql: Sql): Promise<void> {
   await sql`select 1`;
 }
+
+// ---------------------------------------------------------------- corrections (delete, move) and their audit log
+
+/** What the audit log keeps of a recording: enough to tell which one it was and where it was filed. */
+export interface RecordingIdentity {
+  machineId: string;
+  pointId: string;
+  recordedAt: string;
+  contentSha256: string;
+  sourceFormat: string;
+  sampleCount: number;
+  sampleRateHz: number;
+  zone: string | null;
+  velocityRmsMmPerS: number | null;
+}
+
+export async function recordingIdentity(sql: Queryable, recordingId: string): Promise<RecordingIdentity | null> {
+  const [row] = await sql<RecordingIdentity[]>`
+    select m.machine_key as "machineId", p.point_key as "pointId", r.recorded_at as "recordedAt",
+      encode(r.content_hash, 'hex') as "contentSha256", r.source_format as "sourceFormat", r.sample_count as "sampleCount",
+      r.sample_rate_hz as "sampleRateHz", a.zone, a.velocity_rms_mm_per_s as "velocityRmsMmPerS"
+    from recordings r join points p on p.id = r.point_id join machines m on m.id = p.machine_id
+    left join analyses a on a.recording_id = r.id and a.is_current
+    where r.id = ${recordingId}`;
+  return row ? { ...row, recordedAt: new Date(row.recordedAt).toISOString() } : null;
+}
+
+/** Deletes a recording with its analyses and trend values (foreign keys cascade); its alarms keep a null recording. */
+export async function deleteRecordingRow(tx: Queryable, recordingId: string): Promise<boolean> {
+  const removed = await tx`delete from recordings where id = ${recordingId}`;
+  return removed.count > 0;
+}
+
+/** Files a recording under another point and time. */
+export async function moveRecordingRow(tx: Queryable, recordingId: string, pointId: number, recordedAt: Date): Promise<void> {
+  await tx`update recordings set point_id = ${pointId}, recorded_at = ${recordedAt} where id = ${recordingId}`;
+}
+
+/** The channel (1-based) an upload asked the analysis to read, or null when the analysis chose. */
+export async function analysisChannelOf(sql: Queryable, recordingId: string): Promise<number | null> {
+  const [row] = await sql<{ channel: number | null }[]>`select analysis_channel as channel from recordings where id = ${recordingId}`;
+  return row?.channel ?? null;
+}
+
+export async function setAnalysisChannel(tx: Queryable, recordingId: string, channel: number | null): Promise<void> {
+  await tx`update recordings set analysis_channel = ${channel} where id = ${recordingId}`;
+}
+
+/**
+ * Rebuilds one UTC day of a point's daily roll-up from its trend values, after a recording left that day
+ * (deleted, or moved to another point or day).
+ */
+export async function rebuildTrendDay(tx: Queryable, pointId: number, at: Date): Promise<void> {
+  const day = utcDay(at);
+  const dayEnd = new Date(day.getTime() + 86_400_000);
+  await tx`delete from trend_daily where point_id = ${pointId} and day = ${dayText(day)}::date`;
+  await tx`
+    insert into trend_daily (point_id, indicator, day, count, sum, min, max, last_value, last_at)
+    select point_id, indicator, ${dayText(day)}::date, count(*), sum(value), min(value), max(value),
+      (array_agg(value order by recorded_at desc))[1], max(recorded_at)
+    from trend_values
+    where point_id = ${pointId} and recorded_at >= ${day} and recorded_at < ${dayEnd}
+    group by point_id, indicator`;
+}
+
+/** The newest recording of a point with its current trend values (null when the point has none). */
+export async function newestRecordingValues(
+  tx: Queryable,
+  pointId: number,
+): Promise<{ recordingId: string; recordedAt: Date; indicators: Record<string, number> } | null> {
+  const [newest] = await tx<{ id: string; recordedAt: Date }[]>`
+    select id, recorded_at as "recordedAt" from recordings where point_id = ${pointId} order by recorded_at desc, id desc limit 1`;
+  if (!newest) return null;
+  const rows = await tx<{ indicator: string; value: number }[]>`select indicator, value from trend_values where recording_id = ${newest.id}`;
+  return { recordingId: newest.id, recordedAt: newest.recordedAt, indicators: Object.fromEntries(rows.map((r) => [r.indicator, r.value])) };
+}
+
+/** Clears every open alarm of a point (its last recording is gone). */
+export async function clearPointAlarms(tx: Queryable, pointId: number, at: Date, by: string): Promise<number> {
+  const cleared = await tx`update alarms set cleared_at = ${at}, cleared_by = ${by} where point_id = ${pointId} and cleared_at is null`;
+  return cleared.count;
+}
+
+export interface AuditEntry {
+  id: string;
+  recordingId: string;
+  action: 'delete' | 'move';
+  at: Date;
+  by: string;
+  reason: string;
+  before: RecordingIdentity;
+  after: { machineId: string; pointId: string; recordedAt: string } | null;
+}
+
+export async function insertAuditEntry(
+  tx: Queryable,
+  e: { siteId: string; recordingId: string; action: 'delete' | 'move'; byKeyId: string; by: string; reason: string; before: RecordingIdentity; after: AuditEntry['after'] },
+): Promise<AuditEntry> {
+  const [row] = await tx<AuditEntry[]>`
+    insert into recording_audit (site_id, recording_id, action, by_key_id, by_name, reason, before, after)
+    values (${e.siteId}, ${e.recordingId}, ${e.action}, ${e.byKeyId}, ${e.by}, ${e.reason}, ${json(tx, e.before)}, ${e.after === null ? null : json(tx, e.after)})
+    returning id::text, recording_id as "recordingId", action, at, by_name as by, reason, before, after`;
+  return row!;
+}
+
+/** A site's corrections, newest first; optionally those touching one machine (before or after) or one recording. */
+export async function listAuditEntries(
+  sql: Queryable,
+  siteId: string,
+  q: { machineKey?: string; recordingId?: string; limit: number },
+): Promise<AuditEntry[]> {
+  const machine = q.machineKey ?? null;
+  const recording = q.recordingId !== undefined && isUuid(q.recordingId) ? q.recordingId : q.recordingId !== undefined ? '00000000-0000-0000-0000-000000000000' : null;
+  return sql<AuditEntry[]>`
+    select id::text, recording_id as "recordingId", action, at, by_name as by, reason, before, after
+    from recording_audit
+    where site_id = ${siteId}
+      and (${machine}::text is null or before->>'machineId' = ${machine} or after->>'machineId' = ${machine})
+      and (${recording}::uuid is null or recording_id = ${recording}::uuid)
+    order by at desc, id desc
+    limit ${q.limit}`;
+}
+
+/** Clears the open alarms of a point that a recording raised (or last escalated); returns how many. */
+export async function clearAlarmsRaisedBy(tx: Queryable, pointId: number, recordingId: string, at: Date, by: string): Promise<number> {
+  const cleared = await tx`
+    update alarms set cleared_at = ${at}, cleared_by = ${by}
+    where point_id = ${pointId} and recording_id = ${recordingId} and cleared_at is null`;
+  return cleared.count;
+}
