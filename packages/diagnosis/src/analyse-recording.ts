@@ -118,7 +118,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   lap('spectrum noise floor');
 
   // Stage: running speed.
-  const speed = model ? runningSpeed(recording, tachIndex, model, options, measured, warnings) : null;
+  const speed = model ? runningSpeed(recording, tachIndex, model, options, speedSpectrum(samples, fs, unit, measured), warnings) : null;
   const speedHz = speed?.speedHz ?? (options.speedRpm !== undefined ? options.speedRpm / 60 : null);
   const speedSource: SpeedSource | null = speed?.source ?? (options.speedRpm !== undefined ? 'given' : null);
   lap('running speed');
@@ -272,6 +272,24 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   }
   lap('plots and result');
   return analysis;
+}
+
+/** Longest segment the speed's own spectrum uses: 2^18 samples (5.5 s at 48 kHz, a bin of 0.18 Hz). */
+const SPEED_SEGMENT_LIMIT = 1 << 18;
+
+/**
+ * The spectrum the running speed is read from: the record's longest power-of-two segment (up to SPEED_SEGMENT_LIMIT),
+ * one Hann-windowed periodogram. The analysis' own spectrum averages several segments for steady levels; the speed
+ * needs resolution instead: in bins of 3 Hz a belt-driven fan's 1× can stand within a bin of its motor's at a speed
+ * 40 % off, and the comb search cannot tell them apart. Running lines are strong tones, so one segment's variance does
+ * not hide them. Reused when the analysis' spectrum is already as fine.
+ */
+function speedSpectrum(samples: Float64Array, fs: number, unit: string, measured: MatchableSpectrum): MatchableSpectrum {
+  let segment = 1;
+  while (segment * 2 <= Math.min(samples.length, SPEED_SEGMENT_LIMIT)) segment *= 2;
+  if (segment <= measured.spectrum.segmentLength) return measured;
+  const fine = welchSpectrum(samples, fs, { segmentLength: segment, overlapFraction: 0, scaling: 'peak', unit, window: 'hann' });
+  return matchableSpectrum(fine, noiseFloor(fine));
 }
 
 /** The order-tracked spectra, when the recording's tach or encoder gives pulses and the frequency domain is not forced. */

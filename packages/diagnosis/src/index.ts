@@ -40,7 +40,7 @@ export { buildCandidates, type Candidate, type CandidateLimits } from './candida
 export { faultDescriptors, TOOTH_DROP_DEPTH, MESH_RIPPLE_FRACTION } from './faults/descriptors.js';
 export type { FaultDescriptor, GateName, LevelRule, BearingCombRule } from './faults/fault-descriptor.js';
 export { gates, GATE_CLOSED_FACTOR } from './faults/gates.js';
-export { bayesFactorBound, chanceModel, chanceOfPeak, correctedForSearch, evidenceOf, fisherCombined, EVIDENCE_HALF_BAYES_FACTOR } from './evidence/chance.js';
+export { bayesFactorBound, chanceModel, chanceOfPeak, chiSquareSurvivalEven, correctedForSearch, evidenceOf, fisherCombined, EVIDENCE_HALF_BAYES_FACTOR } from './evidence/chance.js';
 export { claimShared, searchCombs, type BearingComb, type CombEvidence, type BandSource } from './evidence/bearing-comb.js';
 export { weighPattern, type LinePattern, type WeighedLine } from './evidence/line-evidence.js';
 export { gearSynchronousAverages, gearTsaIndicators, TSA_MESH_HARMONICS, type GearTsa } from './gear-tsa.js';

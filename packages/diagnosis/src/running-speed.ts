@@ -28,6 +28,8 @@ export interface SpectrumSpeedOptions {
   preferredHz?: number;
 }
 
+/** A tone supports a running line within this many bins of it (interpolated frequencies are good to a small fraction of a bin). */
+const TONE_TOLERANCE_BINS = 0.3;
 /** Half-width of the window around the preferred speed, as a fraction of it. */
 const PREFERRED_FRACTION = 0.04;
 /** How much better a speed outside that window must fit to be taken instead. */
@@ -90,13 +92,26 @@ export function speedFromSpectrum(measured: MatchableSpectrum, model: MachineMod
   if (lines.length === 0) return null;
   const maxOrder = Math.max(...lines.map((l) => l.order));
   const step = Math.min(hiHz - loHz || 1, (0.25 * df) / maxOrder);
-  const at = (hz: number) => {
-    const x = hz / df;
-    const k = Math.floor(x);
-    // Linear between the two bins around the frequency: a tone lights both, most at its own position,
-    // so the comb's score peaks where the lines really are rather than on a plateau one bin wide.
-    const t = x - k;
-    return (1 - t) * snrDb[k]! + t * snrDb[k + 1]!;
+  // The spectrum's tones, at their interpolated frequencies: a line supports a speed only when a tone stands within
+  // TONE_TOLERANCE_BINS of it. Reading the SNR between bins instead lets a line half a bin off score almost as well,
+  // and in coarse bins one shaft's comb then stands in for another's at a speed far from the true one.
+  const tones: Array<{ frequencyHz: number; snrDb: number }> = [];
+  for (const k of measured.maxima) if (snrDb[k]! > 3) tones.push({ frequencyHz: peakAt(measured, k).frequencyHz, snrDb: snrDb[k]! });
+  tones.sort((a, b) => a.frequencyHz - b.frequencyHz);
+  const toneSnr = (hz: number) => {
+    let lo = 0;
+    let hi = tones.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (tones[mid]!.frequencyHz < hz) lo = mid + 1;
+      else hi = mid;
+    }
+    let best = 0;
+    for (const i of [lo - 1, lo]) {
+      const t = tones[i];
+      if (t && Math.abs(t.frequencyHz - hz) <= TONE_TOLERANCE_BINS * df) best = Math.max(best, t.snrDb);
+    }
+    return best;
   };
   const search = (a: number, b: number): { hz: number; score: number } => {
     const n = Math.min(40_000, Math.floor((b - a) / step) + 1);
@@ -106,7 +121,7 @@ export function speedFromSpectrum(measured: MatchableSpectrum, model: MachineMod
       const s = n === 1 ? (a + b) / 2 : a + ((b - a) * i) / (n - 1);
       let score = 0;
       for (const l of lines) {
-        const snr = at(l.order * s);
+        const snr = toneSnr(l.order * s);
         // Clip: one very strong line must not outvote the rest, and noise below 3 dB counts nothing.
         if (snr > 3) score += Math.min(snr - 3, 20);
       }

@@ -95,11 +95,20 @@ export function fisherCombined(chances: readonly number[], lineCount: number): n
   if (k === 0) return 1;
   let x = 0;
   for (const p of chances) x += -2 * Math.log(Math.max(p, MIN_CHANCE));
+  return chiSquareSurvivalEven(x, 2 * k);
+}
+
+/**
+ * The χ² survival function for an even number of degrees of freedom 2k, in closed form: e^(−x/2) Σ_{i<k} (x/2)^i / i!
+ * (Abramowitz & Stegun 26.4.21). Summed in logarithms: the terms run far beyond double range for strong evidence.
+ */
+export function chiSquareSurvivalEven(x: number, dof: number): number {
+  if (!(dof >= 2 && dof % 2 === 0)) throw new RangeError(`dof (${dof}) must be an even number >= 2`);
+  if (!(x > 0)) return 1;
   const half = x / 2;
-  // Summed in logs: the terms run far beyond double range for strong evidence.
   let logTerm = -half;
   let logSum = logTerm;
-  for (let i = 1; i < k; i++) {
+  for (let i = 1; i < dof / 2; i++) {
     logTerm += Math.log(half) - Math.log(i);
     logSum = logAdd(logSum, logTerm);
   }
