@@ -14,6 +14,7 @@ export default defineConfig({
       '@kinespec/simulator': src('./packages/simulator/src/index.ts'),
       '@kinespec/diagnosis': src('./packages/diagnosis/src/index.ts'),
       '@kinespec/forecast': src('./packages/forecast/src/index.ts'),
+      '@kinespec/lumped-rig': src('./packages/lumped-rig/src/index.ts'),
       '@kinespec/api': src('./services/api/src/index.ts'),
     },
   },

@@ -506,7 +506,7 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     const machines = await service.get<Array<{ id: string; soonestCrossing: { level: string; remainingS: number } | null }>>('/api/v1/machines');
     expect(machines.some((m) => m.soonestCrossing !== null), 'the demo foresees at least one crossing').toBe(true);
     await page.goto(`${service.url}#/fleet`);
-    await page.locator('#fleet-table tbody tr[data-machine-id]').first().waitFor();
+    await page.locator('#fleet-table tbody tr[data-machine-id]').first().waitFor({ timeout: 120_000 });
     for (const m of machines) {
       const cell = page.locator(`tr[data-machine-id="${m.id}"] [data-crossing]`);
       expect(await cell.getAttribute('data-crossing')).toBe(m.soonestCrossing?.level ?? '');
