@@ -1,4 +1,4 @@
-import { pointUnit, speedRangeRpm, shaftRatios, type MachineModel } from '@kinespec/kinematics';
+import { faultKindFacts, isFaultKind, pointUnit, speedRangeRpm, shaftRatios, type MachineModel } from '@kinespec/kinematics';
 import {
   bandRms,
   binPower,
@@ -118,7 +118,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   lap('spectrum noise floor');
 
   // Stage: running speed.
-  const speed = model ? runningSpeed(recording, tachIndex, model, options, speedSpectrum(samples, fs, unit, measured), warnings) : null;
+  const speed = model ? runningSpeed(recording, tachIndex, model, options, speedSpectrum(samples, fs, unit, measured, slowestHz), warnings) : null;
   const speedHz = speed?.speedHz ?? (options.speedRpm !== undefined ? options.speedRpm / 60 : null);
   const speedSource: SpeedSource | null = speed?.source ?? (options.speedRpm !== undefined ? 'given' : null);
   lap('running speed');
@@ -274,6 +274,8 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   return analysis;
 }
 
+/** Bins per turn of the slowest shaft at which the analysis' own spectrum is fine enough for the speed. */
+const SPEED_BINS_PER_SHAFT = 16;
 /** Longest segment the speed's own spectrum uses: 2^18 samples (5.5 s at 48 kHz, a bin of 0.18 Hz). */
 const SPEED_SEGMENT_LIMIT = 1 << 18;
 
@@ -284,7 +286,9 @@ const SPEED_SEGMENT_LIMIT = 1 << 18;
  * 40 % off, and the comb search cannot tell them apart. Running lines are strong tones, so one segment's variance does
  * not hide them. Reused when the analysis' spectrum is already as fine.
  */
-function speedSpectrum(samples: Float64Array, fs: number, unit: string, measured: MatchableSpectrum): MatchableSpectrum {
+function speedSpectrum(samples: Float64Array, fs: number, unit: string, measured: MatchableSpectrum, slowestShaftHz: number | null): MatchableSpectrum {
+  // Bins of a sixteenth of the slowest shaft's speed already separate every shaft's comb.
+  if (slowestShaftHz !== null && measured.spectrum.frequencyResolutionHz <= slowestShaftHz / SPEED_BINS_PER_SHAFT) return measured;
   let segment = 1;
   while (segment * 2 <= Math.min(samples.length, SPEED_SEGMENT_LIMIT)) segment *= 2;
   if (segment <= measured.spectrum.segmentLength) return measured;
@@ -398,6 +402,7 @@ function hypothesisOf(j: Judged, unit: string, unitHz: number, angleDomain: bool
   return {
     fault: j.candidate.fault,
     component: j.candidate.component,
+    ...(isFaultKind(j.candidate.fault) ? { title: faultKindFacts[j.candidate.fault].title } : {}),
     score,
     reason: reasonFor(j, score, unitHz, domain),
     domain,

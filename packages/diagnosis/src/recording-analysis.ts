@@ -38,6 +38,8 @@ export interface Evidence {
 export interface Hypothesis {
   fault: string;
   component: string;
+  /** The fault kind's short title (@kinespec/kinematics faultKindFacts), for tables. */
+  title?: string;
   /** 0..1; 0.5 or more means the recording shows the fault (see packages/diagnosis/README.md). */
   score: number;
   /** One sentence in plain language. */

@@ -96,9 +96,52 @@ export function speedFromSpectrum(measured: MatchableSpectrum, model: MachineMod
   // TONE_TOLERANCE_BINS of it. Reading the SNR between bins instead lets a line half a bin off score almost as well,
   // and in coarse bins one shaft's comb then stands in for another's at a speed far from the true one.
   const tones: Array<{ frequencyHz: number; snrDb: number }> = [];
-  for (const k of measured.maxima) if (snrDb[k]! > 3) tones.push({ frequencyHz: peakAt(measured, k).frequencyHz, snrDb: snrDb[k]! });
+  // Only maxima that can matter (over the 3 dB the score clips at, below the highest line at the highest speed) are
+  // interpolated: interpolation is the costly part.
+  const reachBin = ((maxOrder * hiHz) + TONE_TOLERANCE_BINS * df) / df + 1;
+  for (const k of measured.maxima) {
+    if (k > reachBin) break;
+    if (snrDb[k]! > 3) tones.push({ frequencyHz: peakAt(measured, k).frequencyHz, snrDb: snrDb[k]! });
+  }
   tones.sort((a, b) => a.frequencyHz - b.frequencyHz);
-  const toneSnr = (hz: number) => {
+  // The comb's score as a function of speed is a sum of boxes: a tone at f within the tolerance of line o adds its
+  // clipped SNR to every speed in [(f − tol)/o, (f + tol)/o]. Summed on the grid with a difference array, then searched:
+  // linear in grid points plus line-tone pairs, instead of a look-up per line per speed.
+  const tolerance = TONE_TOLERANCE_BINS * df;
+  const search = (a: number, b: number): { hz: number; score: number } => {
+    const n = Math.min(40_000, Math.floor((b - a) / step) + 1);
+    const spacing = n === 1 ? 0 : (b - a) / (n - 1);
+    const diff = new Float64Array(n + 1);
+    for (const l of lines) {
+      const fLo = l.order * a - tolerance;
+      const fHi = l.order * b + tolerance;
+      let t = lowerTone(fLo);
+      for (; t < tones.length && tones[t]!.frequencyHz <= fHi; t++) {
+        const tone = tones[t]!;
+        // Clip: one very strong line must not outvote the rest, and noise below 3 dB counts nothing.
+        const weight = Math.min(tone.snrDb - 3, 20);
+        const sLo = (tone.frequencyHz - tolerance) / l.order;
+        const sHi = (tone.frequencyHz + tolerance) / l.order;
+        const i0 = n === 1 ? (sLo <= a && sHi >= a ? 0 : 1) : Math.max(0, Math.ceil((sLo - a) / spacing));
+        const i1 = n === 1 ? (sLo <= a && sHi >= a ? 0 : -1) : Math.min(n - 1, Math.floor((sHi - a) / spacing));
+        if (i1 < i0) continue;
+        diff[i0]! += weight;
+        diff[i1 + 1]! -= weight;
+      }
+    }
+    let bestScore = -1;
+    let bestHz = a;
+    let run = 0;
+    for (let i = 0; i < n; i++) {
+      run += diff[i]!;
+      if (run > bestScore + 1e-9) {
+        bestScore = run;
+        bestHz = n === 1 ? (a + b) / 2 : a + spacing * i;
+      }
+    }
+    return { hz: bestHz, score: Math.max(0, bestScore) };
+  };
+  const lowerTone = (hz: number) => {
     let lo = 0;
     let hi = tones.length;
     while (lo < hi) {
@@ -106,31 +149,7 @@ export function speedFromSpectrum(measured: MatchableSpectrum, model: MachineMod
       if (tones[mid]!.frequencyHz < hz) lo = mid + 1;
       else hi = mid;
     }
-    let best = 0;
-    for (const i of [lo - 1, lo]) {
-      const t = tones[i];
-      if (t && Math.abs(t.frequencyHz - hz) <= TONE_TOLERANCE_BINS * df) best = Math.max(best, t.snrDb);
-    }
-    return best;
-  };
-  const search = (a: number, b: number): { hz: number; score: number } => {
-    const n = Math.min(40_000, Math.floor((b - a) / step) + 1);
-    let bestScore = -1;
-    let bestHz = a;
-    for (let i = 0; i < n; i++) {
-      const s = n === 1 ? (a + b) / 2 : a + ((b - a) * i) / (n - 1);
-      let score = 0;
-      for (const l of lines) {
-        const snr = toneSnr(l.order * s);
-        // Clip: one very strong line must not outvote the rest, and noise below 3 dB counts nothing.
-        if (snr > 3) score += Math.min(snr - 3, 20);
-      }
-      if (score > bestScore) {
-        bestScore = score;
-        bestHz = s;
-      }
-    }
-    return { hz: bestHz, score: bestScore };
+    return lo;
   };
   let best = search(loHz, hiHz);
   // Most machines run within a few percent of nominal: a speed far from it must be clearly better supported,

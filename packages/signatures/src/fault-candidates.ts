@@ -1,5 +1,5 @@
 import { motorComponentId, type MachineModel } from '@kinespec/kinematics';
-import type { FaultComponentKind, FaultKind } from './fault-kinds.js';
+import { faultComponentKinds, faultKinds, type FaultComponentKind, type FaultKind } from './fault-kinds.js';
 
 export interface FaultCandidate {
   fault: FaultKind;
@@ -29,21 +29,22 @@ export function modelGears(model: MachineModel): Array<{ gear: string; shaft: st
  * eccentricity; every gear mesh for wear; every bearing for its four defects; the motor for electrical lines.
  */
 export function faultCandidates(model: MachineModel): FaultCandidate[] {
-  const out: FaultCandidate[] = [];
-  const shafts = model.shafts.map((s) => s.id);
-  const push = (fault: FaultKind, componentKind: FaultComponentKind, component: string, shaft: string) =>
-    out.push({ fault, component, componentKind, shaft });
-  for (const s of shafts) push('unbalance', 'shaft', s, s);
-  for (const r of model.rotors) push('unbalance', 'rotor', r.id, r.shaft);
-  for (const s of shafts) push('misalignment', 'shaft', s, s);
-  for (const s of shafts) push('looseness', 'shaft', s, s);
   const gears = modelGears(model);
-  for (const fault of ['gear-missing-tooth', 'gear-broken-tooth'] as const) for (const g of gears) push(fault, 'gear', g.gear, g.shaft);
-  for (const m of model.gearMeshes) push('gear-wear', 'gear-mesh', m.id, m.driver.shaft);
-  for (const g of gears) push('gear-eccentricity', 'gear', g.gear, g.shaft);
-  for (const fault of ['bearing-outer-race', 'bearing-inner-race', 'bearing-rolling-element', 'bearing-cage'] as const) {
-    for (const b of model.bearings) push(fault, 'bearing', b.id, b.shaft);
+  // Every component of a kind, with the shaft it turns with: the one place a component kind is enumerated, so that a
+  // new fault kind needs only its entry in @kinespec/kinematics' fault facts.
+  const componentsOf: Record<FaultComponentKind, Array<{ component: string; shaft: string }>> = {
+    shaft: model.shafts.map((s) => ({ component: s.id, shaft: s.id })),
+    rotor: model.rotors.map((r) => ({ component: r.id, shaft: r.shaft })),
+    gear: gears.map((g) => ({ component: g.gear, shaft: g.shaft })),
+    'gear-mesh': model.gearMeshes.map((m) => ({ component: m.id, shaft: m.driver.shaft })),
+    bearing: model.bearings.map((b) => ({ component: b.id, shaft: b.shaft })),
+    motor: model.motor ? [{ component: motorComponentId(model.motor), shaft: model.motor.shaft }] : [],
+  };
+  const out: FaultCandidate[] = [];
+  for (const fault of faultKinds) {
+    for (const componentKind of faultComponentKinds[fault]) {
+      for (const c of componentsOf[componentKind]) out.push({ fault, component: c.component, componentKind, shaft: c.shaft });
+    }
   }
-  if (model.motor) push('electrical', 'motor', motorComponentId(model.motor), model.motor.shaft);
   return out;
 }

@@ -126,6 +126,8 @@ export type EvidenceDomain = 'spectrum' | 'envelope' | 'order';
 export interface Hypothesis {
   fault: string;
   component: string;
+  /** The fault kind's title from the diagnosis (absent in analyses stored before it). */
+  title?: string;
   score: number;
   reason: string;
   domain: EvidenceDomain;

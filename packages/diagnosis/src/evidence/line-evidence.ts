@@ -1,6 +1,6 @@
 import type { CatalogueLine, LineCatalogue } from '../ambiguity.js';
 import { firstAtOrAbove, lineToleranceHz, matchLine, type ExpectedLine, type LineMatch, type MatchableSpectrum } from '../line-matching.js';
-import { chanceModel, chanceOfPeak, fisherCombined } from './chance.js';
+import { chanceModel, chanceOfPeak, fisherCombined, type ChanceModel } from './chance.js';
 
 /** A predicted line and what the spectrum showed there, with the chance of that by accident. */
 export interface WeighedLine extends LineMatch {
@@ -62,6 +62,26 @@ export function weighPattern(spec: PatternSpec, measured: MatchableSpectrum, inp
     const t = tolerances[i]!;
     for (let k = Math.max(0, Math.floor((line.frequencyHz - t) / df) - 1); k <= Math.min(n - 1, Math.ceil((line.frequencyHz + t) / df) + 1); k++) own[k] = 1;
   });
+  // The pattern's chance neighbourhood, fitted once: the peaks of the band its lines span, widened by a quarter on each
+  // side (and by at least NEIGHBOURHOOD_MIN_BINS), without the pattern's own windows.
+  let model: ChanceModel | null = null;
+  const neighbourhood = (): ChanceModel => {
+    if (model) return model;
+    const fLo = Math.min(...spec.lines.map((l) => l.frequencyHz));
+    const fHi = Math.max(...spec.lines.map((l) => l.frequencyHz));
+    const lo = Math.max(1, Math.min(Math.round(((1 - NEIGHBOURHOOD_FRACTION) * fLo) / df), Math.round(fLo / df) - NEIGHBOURHOOD_MIN_BINS));
+    const hi = Math.min(n - 2, Math.max(Math.round(((1 + NEIGHBOURHOOD_FRACTION) * fHi) / df), Math.round(fHi / df) + NEIGHBOURHOOD_MIN_BINS));
+    const peaks: number[] = [];
+    let width = 0;
+    for (let k = lo; k <= hi; k++) if (!own[k]) width++;
+    for (let j = firstAtOrAbove(maxima, lo); j < maxima.length && maxima[j]! <= hi; j++) {
+      const k = maxima[j]!;
+      if (!own[k]) peaks.push(snrDb[k]!);
+    }
+    peaks.sort((a, b) => b - a);
+    model = chanceModel({ peakSnrDb: peaks, widthBins: width });
+    return model;
+  };
   const lines: WeighedLine[] = spec.lines.map((line, i) => {
     const tolerance = tolerances[i]!;
     const m = matchLine(measured, line, tolerance, inputs.minSnrDb);
@@ -73,22 +93,7 @@ export function weighPattern(spec: PatternSpec, measured: MatchableSpectrum, inp
     const ambiguousWith = [...runningLabels, ...others.map((l) => l.label), ...twins.map((l) => `${l.label} (identical component)`)];
     const running = runningLabels.length > 0;
     const counted = !running && others.length === 0;
-    let chance = 1;
-    if (m.matched) {
-      const c = Math.round(line.frequencyHz / df);
-      const reach = Math.max(NEIGHBOURHOOD_MIN_BINS, Math.round(NEIGHBOURHOOD_FRACTION * c));
-      const lo = Math.max(1, c - reach);
-      const hi = Math.min(n - 2, c + reach);
-      const peaks: number[] = [];
-      let width = 0;
-      for (let k = lo; k <= hi; k++) if (!own[k]) width++;
-      for (let j = firstAtOrAbove(maxima, lo); j < maxima.length && maxima[j]! <= hi; j++) {
-        const k = maxima[j]!;
-        if (!own[k]) peaks.push(snrDb[k]!);
-      }
-      peaks.sort((a, b) => b - a);
-      chance = chanceOfPeak(chanceModel({ peakSnrDb: peaks, widthBins: width }), m.snrDb, Math.max(1, Math.round((2 * tolerance) / df)));
-    }
+    const chance = m.matched ? chanceOfPeak(neighbourhood(), m.snrDb, Math.max(1, Math.round((2 * tolerance) / df))) : 1;
     return { ...m, chance, ambiguous: ambiguousWith.length > 0, ambiguousWith, running, twin: twins.length > 0, counted };
   });
   const counted = lines.filter((l) => l.counted);
@@ -98,6 +103,6 @@ export function weighPattern(spec: PatternSpec, measured: MatchableSpectrum, inp
 
 /** Smallest half-width of a line's chance neighbourhood, bins. */
 const NEIGHBOURHOOD_MIN_BINS = 50;
-/** Half-width of a line's chance neighbourhood as a share of its frequency: peaks within ±25 % of it. */
+/** The pattern's chance neighbourhood reaches this share beyond its lowest and highest lines. */
 const NEIGHBOURHOOD_FRACTION = 0.25;
 const NOTHING: ReadonlySet<string> = new Set();

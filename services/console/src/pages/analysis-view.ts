@@ -126,7 +126,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
     list.forEach((x) => {
       const i = hypotheses.indexOf(x);
       const id = uid('hyp');
-      const radio = h('input', { type: 'radio', name: 'draw-hypothesis', id, checked: x === chosen, 'aria-label': `Draw ${faultName(x.fault)} at ${x.component}` });
+      const radio = h('input', { type: 'radio', name: 'draw-hypothesis', id, checked: x === chosen, 'aria-label': `Draw ${(x.title ?? faultName(x.fault))} at ${x.component}` });
       radio.addEventListener('change', () => {
         if (!radio.checked) return;
         chosen = x;
@@ -142,7 +142,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
           'tr',
           { class: x === chosen ? 'chosen' : null, 'data-hypothesis': hypothesisKey(x), 'data-rank': i + 1 },
           h('td', {}, radio),
-          h('td', {}, h('label', { for: id }, faultName(x.fault))),
+          h('td', {}, h('label', { for: id }, (x.title ?? faultName(x.fault)))),
           h('td', { class: 'mono' }, x.component),
           h('td', {}, scoreBadge(x.score)),
           h('td', {}, x.domain),
@@ -163,7 +163,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
   const fillDrawSelect = () => {
     clear(drawSelect);
     drawSelect.append(h('option', { value: '' }, 'none'));
-    hypotheses.forEach((x, i) => drawSelect.append(h('option', { value: String(i), selected: x === chosen }, `${x.score.toFixed(2)} · ${faultName(x.fault)} @ ${x.component}`)));
+    hypotheses.forEach((x, i) => drawSelect.append(h('option', { value: String(i), selected: x === chosen }, `${x.score.toFixed(2)} · ${(x.title ?? faultName(x.fault))} @ ${x.component}`)));
   };
   drawSelect.addEventListener('change', () => {
     chosen = drawSelect.value === '' ? null : hypotheses[Number(drawSelect.value)] ?? null;
@@ -322,7 +322,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
 
   const renderEvidence = () => {
     clear(evidenceBox);
-    evidenceBox.append(h('h2', { id: 'evidence-title' }, chosen ? `Evidence · ${faultName(chosen.fault)} @ ${chosen.component}` : 'Evidence'));
+    evidenceBox.append(h('h2', { id: 'evidence-title' }, chosen ? `Evidence · ${(chosen.title ?? faultName(chosen.fault))} @ ${chosen.component}` : 'Evidence'));
     if (!chosen) {
       evidenceBox.append(message('empty', 'Choose a hypothesis to see its evidence.'));
       return;
