@@ -6,6 +6,7 @@ import {
   downsampleForPlot,
   integrateSpectrum,
   isMotionUnit,
+  DEFAULT_NOISE_FLOOR_WIDTH_BINS,
   noiseFloor,
   quantityOfUnit,
   scratchArray,
@@ -30,7 +31,7 @@ import { gearSynchronousAverages, type GearTsa } from './gear-tsa.js';
 import { indicatorsOf } from './indicators/indicator-registry.js';
 import { reasonFor } from './reason.js';
 import type { Evidence, Hypothesis, RecordingAnalysis, SpeedSource } from './recording-analysis.js';
-import { runningSpeed, type RunningSpeed } from './speed-stage.js';
+import { runningSpeed, speedSearchTopHz, type RunningSpeed } from './speed-stage.js';
 import { timeIndicators } from './time-indicators.js';
 
 /** Version of the analysis code, stored with every analysis so that results can be told apart after upgrades. */
@@ -118,7 +119,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   lap('spectrum noise floor');
 
   // Stage: running speed.
-  const speed = model ? runningSpeed(recording, tachIndex, model, options, speedSpectrum(samples, fs, unit, measured, slowestHz), warnings) : null;
+  const speed = model ? runningSpeed(recording, tachIndex, model, options, speedSpectrum(samples, fs, unit, measured, slowestHz, speedSearchTopHz(model, options.speedRpm)), warnings) : null;
   const speedHz = speed?.speedHz ?? (options.speedRpm !== undefined ? options.speedRpm / 60 : null);
   const speedSource: SpeedSource | null = speed?.source ?? (options.speedRpm !== undefined ? 'given' : null);
   lap('running speed');
@@ -284,15 +285,21 @@ const SPEED_SEGMENT_LIMIT = 1 << 18;
  * one Hann-windowed periodogram. The analysis' own spectrum averages several segments for steady levels; the speed
  * needs resolution instead: in bins of 3 Hz a belt-driven fan's 1× can stand within a bin of its motor's at a speed
  * 40 % off, and the comb search cannot tell them apart. Running lines are strong tones, so one segment's variance does
- * not hide them. Reused when the analysis' spectrum is already as fine.
+ * not hide them. Reused when the analysis' spectrum is already as fine. Cut above the highest frequency the search
+ * reads (plus a noise-floor window, so that the floor under the top lines is a full running median): the floor is
+ * the costly part, and a 2^16-point periodogram holds ten times more bins than the running lines reach.
  */
-function speedSpectrum(samples: Float64Array, fs: number, unit: string, measured: MatchableSpectrum, slowestShaftHz: number | null): MatchableSpectrum {
+function speedSpectrum(
+  samples: Float64Array, fs: number, unit: string, measured: MatchableSpectrum, slowestShaftHz: number | null, searchTopHz: number,
+): MatchableSpectrum {
   // Bins of a sixteenth of the slowest shaft's speed already separate every shaft's comb.
   if (slowestShaftHz !== null && measured.spectrum.frequencyResolutionHz <= slowestShaftHz / SPEED_BINS_PER_SHAFT) return measured;
   let segment = 1;
   while (segment * 2 <= Math.min(samples.length, SPEED_SEGMENT_LIMIT)) segment *= 2;
   if (segment <= measured.spectrum.segmentLength) return measured;
-  const fine = welchSpectrum(samples, fs, { segmentLength: segment, overlapFraction: 0, scaling: 'peak', unit, window: 'hann' });
+  const full = welchSpectrum(samples, fs, { segmentLength: segment, overlapFraction: 0, scaling: 'peak', unit, window: 'hann' });
+  const bins = Math.min(full.values.length, Math.ceil(searchTopHz / full.frequencyResolutionHz) + 2 * DEFAULT_NOISE_FLOOR_WIDTH_BINS);
+  const fine = bins < full.values.length ? { ...full, frequenciesHz: full.frequenciesHz.subarray(0, bins), values: full.values.subarray(0, bins) } : full;
   return matchableSpectrum(fine, noiseFloor(fine));
 }
 

@@ -51,6 +51,8 @@ export function envelopeStage(
   const bank = new BandEnvelopes(samples, sampleRate, { maxSamples: MAX_ENVELOPE_SAMPLES });
   const resolution = Math.max(options.resolution, (2 * sampleRate) / bank.samplesUsed);
   const memo = new Map<string, { spectrum: Spectrum; measured: MatchableSpectrum; kurtosis: number }>();
+  // Kurtosis alone (the default band's choice) needs no spectrum: a band's spectrum and floor are made when searched.
+  const kurtosisOf = (b: { lowHz: number; highHz: number }) => memo.get(`${b.lowHz}|${b.highHz}`)?.kurtosis ?? bank.bandKurtosis(b);
   const band = (b: { lowHz: number; highHz: number }) => {
     const key = `${b.lowHz}|${b.highHz}`;
     let r = memo.get(key);
@@ -88,10 +90,10 @@ export function envelopeStage(
     let best: EnvelopeStage['defaultBand'] | null = null;
     for (const b of bands) {
       if (b.highHz - b.lowHz < minBandwidth) continue;
-      const k = band(b).kurtosis;
+      const k = kurtosisOf(b);
       if (!best || k > (best.kurtosis ?? -Infinity)) best = { lowHz: b.lowHz, highHz: b.highHz, source: 'kurtogram', kurtosis: k };
     }
-    defaultBand = best ?? { lowHz: bands[0]!.lowHz, highHz: bands[0]!.highHz, source: 'kurtogram', kurtosis: band(bands[0]!).kurtosis };
+    defaultBand = best ?? { lowHz: bands[0]!.lowHz, highHz: bands[0]!.highHz, source: 'kurtogram', kurtosis: kurtosisOf(bands[0]!) };
   }
   return { source: { bands, spectrumOf: (b) => band(b).measured }, defaultBand, band, topHz };
 }

@@ -51,6 +51,13 @@ function speedLines(model: MachineModel): readonly SpeedLine[] {
   return lines;
 }
 
+/** The highest order among the model's speed lines (0 when it has none). */
+export function highestSpeedOrder(model: MachineModel): number {
+  let top = 0;
+  for (const l of speedLines(model)) top = Math.max(top, l.order);
+  return top;
+}
+
 function computeSpeedLines(model: MachineModel): SpeedLine[] {
   const catalogue = componentLines(model, 1, {
     maxHarmonic: {

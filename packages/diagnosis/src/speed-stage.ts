@@ -2,7 +2,7 @@ import { speedRangeRpm, type MachineModel } from '@kinespec/kinematics';
 import { binPower, type PulseSpeed, type Recording } from '@kinespec/signal';
 import { peakAt, type MatchableSpectrum } from './line-matching.js';
 import type { SpeedSource } from './recording-analysis.js';
-import { speedFromSpectrum } from './running-speed.js';
+import { highestSpeedOrder, speedFromSpectrum } from './running-speed.js';
 import { speedFromTach } from './tach-speed.js';
 
 export interface RunningSpeed {
@@ -42,15 +42,7 @@ export function runningSpeed(
     if (tach) return { speedHz: tach.speedHz, uncertaintyHz: tach.uncertaintyHz, source: tach.source, pulses: tach.pulses, spreadHz: tach.spreadHz, supportOrders: [], givenAgrees: false };
   }
   const range = speedRangeRpm(model);
-  const searchRpm: [number, number] = options.speedRpm !== undefined
-    ? [options.speedRpm * 0.97, options.speedRpm * 1.03]
-    : [range.minRpm, range.maxRpm];
-  // A model with a single speed still runs off nameplate by a few percent (common practice: slip, drives).
-  if (searchRpm[1] - searchRpm[0] < 0.06 * searchRpm[0]) {
-    const mid = (searchRpm[0] + searchRpm[1]) / 2;
-    searchRpm[0] = Math.min(searchRpm[0], mid * 0.97);
-    searchRpm[1] = Math.max(searchRpm[1], mid * 1.03);
-  }
+  const searchRpm = speedSearchRangeRpm(model, options.speedRpm);
   const found = speedFromSpectrum(measured, model, {
     searchRangeHz: [searchRpm[0] / 60, searchRpm[1] / 60],
     minSnrDb: MIN_SNR_DB,
@@ -76,6 +68,27 @@ export function runningSpeed(
   const fallbackRpm = options.speedRpm ?? range.nominalRpm;
   warnings.push(`the spectrum does not show the running speed; using the ${options.speedRpm !== undefined ? 'given' : "model's nominal"} ${fallbackRpm} rpm`);
   return { speedHz: fallbackRpm / 60, uncertaintyHz: (0.01 * fallbackRpm) / 60, source: 'given', supportOrders: [], givenAgrees: options.speedRpm !== undefined };
+}
+
+/**
+ * The reference-shaft speeds the spectrum is searched over: ±3 % around a given speed (machines run off nameplate),
+ * else the model's range, never narrower than ±3 % (a model with a single speed still runs off nameplate by a few
+ * percent: slip, drives; common practice).
+ */
+export function speedSearchRangeRpm(model: MachineModel, speedRpm: number | undefined): [number, number] {
+  const range = speedRangeRpm(model);
+  const searchRpm: [number, number] = speedRpm !== undefined ? [speedRpm * 0.97, speedRpm * 1.03] : [range.minRpm, range.maxRpm];
+  if (searchRpm[1] - searchRpm[0] < 0.06 * searchRpm[0]) {
+    const mid = (searchRpm[0] + searchRpm[1]) / 2;
+    searchRpm[0] = Math.min(searchRpm[0], mid * 0.97);
+    searchRpm[1] = Math.max(searchRpm[1], mid * 1.03);
+  }
+  return searchRpm;
+}
+
+/** The highest frequency the speed search reads, Hz: its highest-order line at the top of the search range. */
+export function speedSearchTopHz(model: MachineModel, speedRpm: number | undefined): number {
+  return (highestSpeedOrder(model) * speedSearchRangeRpm(model, speedRpm)[1]) / 60;
 }
 
 /**

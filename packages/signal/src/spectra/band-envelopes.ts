@@ -138,18 +138,7 @@ export class BandEnvelopes {
     if (!(options.resolutionHz > 0)) throw spectraError('invalid_band', `resolutionHz (${options.resolutionHz}) must be > 0`);
     const env = this.squaredEnvelope(band);
     const m = env.samples.length;
-    const skip = Math.ceil(m * TAPER_FRACTION * (this.samplesUsed / this.transformLength));
-    const end = Math.floor(m * (this.samplesUsed / this.transformLength)) - skip;
-    let s1 = 0;
-    let s2 = 0;
-    let count = 0;
-    for (let i = skip; i < end; i++) {
-      const e = env.samples[i]!;
-      s1 += e;
-      s2 += e * e;
-      count++;
-    }
-    const kurtosis = count > 0 && s1 > 0 ? (s2 / count) / ((s1 / count) ** 2) - 2 : 0;
+    const kurtosis = this.kurtosisOf(env.samples);
     let segment = 16;
     while (segment < m && env.sampleRateHz / segment > options.resolutionHz) segment *= 2;
     // The record's zero-padded tail carries no signal: the segments stop where the record does.
@@ -161,6 +150,28 @@ export class BandEnvelopes {
     while (keep > 2 && full.frequenciesHz[keep - 1]! > widthHz) keep--;
     const spectrum = keep === full.frequenciesHz.length ? full : { ...full, frequenciesHz: full.frequenciesHz.slice(0, keep), values: full.values.slice(0, keep) };
     return { spectrum, kurtosis };
+  }
+
+  /** The kurtosis of the band's complex envelope alone (see analyseBand), without its spectrum. */
+  bandKurtosis(band: { lowHz: number; highHz: number }): number {
+    return this.kurtosisOf(this.squaredEnvelope(band).samples);
+  }
+
+  /** <|c|⁴>/<|c|²>² − 2 of a squared envelope |c|², over the untapered part of the record. */
+  private kurtosisOf(squared: Float64Array): number {
+    const m = squared.length;
+    const skip = Math.ceil(m * TAPER_FRACTION * (this.samplesUsed / this.transformLength));
+    const end = Math.floor(m * (this.samplesUsed / this.transformLength)) - skip;
+    let s1 = 0;
+    let s2 = 0;
+    let count = 0;
+    for (let i = skip; i < end; i++) {
+      const e = squared[i]!;
+      s1 += e;
+      s2 += e * e;
+      count++;
+    }
+    return count > 0 && s1 > 0 ? (s2 / count) / ((s1 / count) ** 2) - 2 : 0;
   }
 
   /** The band's squared-envelope spectrum alone (see analyseBand). */
