@@ -54,6 +54,19 @@ describe('analyseRecording', () => {
     expect(healthy.speedUncertaintyHz).toBeGreaterThan(0);
   });
 
+  it('refines a given speed within ±3 %, and keeps the given one when the lines fit best at the edge of that window', () => {
+    // The machine runs 1.5 % under a given 1480 rpm: refined onto its lines.
+    const near = analyseRecording(recording(runningMachine(speedHz, 1)), { model, pointId: 'gb-input-h', speedRpm: 1480 });
+    expect(near.speedSource).toBe('spectrum');
+    expect(Math.abs(near.speedHz! / speedHz - 1)).toBeLessThan(1e-3);
+    // Lines of a speed 3.5 % over the given one: the best fit inside ±3 % lies on its edge, so they are another
+    // machine's lines and the given speed stands.
+    const far = analyseRecording(recording(runningMachine((1480 * 1.035) / 60, 1)), { model, pointId: 'gb-input-h', speedRpm: 1480 });
+    expect(far.speedSource).toBe('given');
+    expect(far.speedHz! * 60).toBeCloseTo(1480, 6);
+    expect(far.warnings.some((w) => w.includes('edge of the ±3 %'))).toBe(true);
+  });
+
   it('scores every gear and bearing fault below 0.5 on a machine that shows only its running lines', () => {
     for (const h of healthy.hypotheses) if (h.fault.startsWith('gear-') || h.fault.startsWith('bearing-')) expect(h.score).toBeLessThan(0.5);
   });

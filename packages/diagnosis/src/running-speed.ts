@@ -26,6 +26,8 @@ export interface SpectrumSpeedOptions {
   minSnrDb?: number;
   /** The speed the machine usually runs at (nominal): preferred unless a speed elsewhere in the range fits 1.5 times better. */
   preferredHz?: number;
+  /** Half-width of the preferred window, as a fraction of preferredHz (default 4 %: nominal against actual). */
+  preferredFraction?: number;
 }
 
 /** A tone supports a running line within this many bins of it (interpolated frequencies are good to a small fraction of a bin). */
@@ -162,8 +164,9 @@ export function speedFromSpectrum(measured: MatchableSpectrum, model: MachineMod
   // Most machines run within a few percent of nominal: a speed far from it must be clearly better supported,
   // since across a wide range some other speed always lines a few unrelated peaks up with the comb.
   if (options.preferredHz !== undefined) {
-    const a = Math.max(loHz, options.preferredHz * (1 - PREFERRED_FRACTION));
-    const b = Math.min(hiHz, options.preferredHz * (1 + PREFERRED_FRACTION));
+    const fraction = options.preferredFraction ?? PREFERRED_FRACTION;
+    const a = Math.max(loHz, options.preferredHz * (1 - fraction));
+    const b = Math.min(hiHz, options.preferredHz * (1 + fraction));
     if (b >= a) {
       const near = search(a, b);
       if (near.score > 0 && best.score < FAR_SPEED_MARGIN * near.score) best = near;

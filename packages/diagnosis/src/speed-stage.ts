@@ -21,6 +21,10 @@ export interface RunningSpeed {
 
 /** A running line vouches for which line is which shaft's 1× only this far over the floor (see runningSpeed). */
 const IDENTITY_SUPPORT_DB = 12;
+/** Half-width of the window around a given speed preferred by the comb search, as a fraction of it. */
+const GIVEN_SPEED_FRACTION = 0.01;
+/** A refined speed this close to the edge of the window searched around a given speed (share of its half-width) is refused. */
+const EDGE_FRACTION = 0.97;
 /** Lines closer than this SNR to the floor are not peaks worth matching. */
 const MIN_SNR_DB = 6;
 
@@ -47,8 +51,19 @@ export function runningSpeed(
     searchRangeHz: [searchRpm[0] / 60, searchRpm[1] / 60],
     minSnrDb: MIN_SNR_DB,
     preferredHz: (options.speedRpm ?? range.nominalRpm) / 60,
+    // A given speed is a reading (a drive's display, a hand tach, a logger's speed channel): within about 1 % of the
+    // actual one (from memory), so a speed farther off within the ±3 % searched must fit clearly better.
+    ...(options.speedRpm !== undefined ? { preferredFraction: GIVEN_SPEED_FRACTION } : {}),
   });
-  if (found && found.support.length >= 2) {
+  // A given speed is searched ±3 %: a best fit on the edge of that window means the comb's score still rises beyond
+  // it, so the lines it aligned belong to something at another speed (an unmodelled motor behind a reducer, a belt
+  // drive), not to this machine a little off its given speed. The given speed is kept.
+  const atEdge = found !== null && options.speedRpm !== undefined &&
+    Math.abs(found.speedHz * 60 - options.speedRpm) >= EDGE_FRACTION * (searchRpm[1] - searchRpm[0]) / 2;
+  if (found && atEdge) {
+    warnings.push(`the running lines fit best at the edge of the ±3 % searched around the given ${options.speedRpm} rpm (${(found.speedHz * 60).toFixed(1)} rpm): they are taken for another machine's, and the given speed is used`);
+  }
+  if (found && !atEdge && found.support.length >= 2) {
     const smeared = smearedOrder(measured, found.support);
     if (smeared !== null) {
       warnings.push(
@@ -66,7 +81,7 @@ export function runningSpeed(
     return { speedHz: found.speedHz, uncertaintyHz: found.uncertaintyHz, source: 'spectrum', supportOrders, givenAgrees };
   }
   const fallbackRpm = options.speedRpm ?? range.nominalRpm;
-  warnings.push(`the spectrum does not show the running speed; using the ${options.speedRpm !== undefined ? 'given' : "model's nominal"} ${fallbackRpm} rpm`);
+  if (!atEdge) warnings.push(`the spectrum does not show the running speed; using the ${options.speedRpm !== undefined ? 'given' : "model's nominal"} ${fallbackRpm} rpm`);
   return { speedHz: fallbackRpm / 60, uncertaintyHz: (0.01 * fallbackRpm) / 60, source: 'given', supportOrders: [], givenAgrees: options.speedRpm !== undefined };
 }
 

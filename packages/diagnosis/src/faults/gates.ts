@@ -107,13 +107,6 @@ export const gates: Readonly<Record<GateName, (context: GateContext) => GateResu
   'needs-baseline': ({ hasBaseline }) => (hasBaseline ? { factor: 1 } : { factor: GATE_CLOSED_FACTOR, reason: 'tooth wear is judged only against a baseline of this point (mesh harmonic ratios depend on the path to the sensor)' }),
 
   /**
-   * A local tooth fault (a missing, broken or cracked tooth) acts for one tooth's mesh per turn: a short event whose
-   * spectrum spreads over about half the tooth count in orders, so sidebands of the gear's shaft rate stand far out on
-   * both sides of each mesh harmonic. Runout and eccentricity, one cycle per turn, give only ±1× and ±2× (Randall,
-   * Vibration-based Condition Monitoring, 2011, ch. 2: local versus distributed faults, from memory). At least
-   * WIDE_SIDEBANDS found sidebands of order 3 or more count fully, one or none count nothing.
-   */
-  /**
    * A local tooth fault strikes once per turn of its gear: the envelope of its mesh is impulsive at the shaft rate, a
    * comb of many harmonics (Randall 2011, ch. 2 and 6: envelope and cepstrum at the faulty gear's rate, from memory),
    * where a smooth runout gives 1× and 2×. Five or more of the first eight count fully, two or fewer nothing; a record
@@ -126,6 +119,13 @@ export const gates: Readonly<Record<GateName, (context: GateContext) => GateResu
     return factor >= 1 ? { factor } : { factor, reason: `the envelope of its mesh shows only ${n} of 8 harmonics of its shaft rate (a local tooth fault strikes once per turn)` };
   },
 
+  /**
+   * A local tooth fault (a missing, broken or cracked tooth) acts for one tooth's mesh per turn: a short event whose
+   * spectrum spreads over about half the tooth count in orders, so sidebands of the gear's shaft rate stand far out on
+   * both sides of each mesh harmonic. Runout and eccentricity, one cycle per turn, give only ±1× and ±2× (Randall,
+   * Vibration-based Condition Monitoring, 2011, ch. 2: local versus distributed faults, from memory). At least
+   * WIDE_SIDEBANDS found sidebands of order 3 or more count fully, one or none count nothing.
+   */
   'wide-sidebands': ({ lines }) => {
     const wide = lines.filter((l) => l.counted && l.matched && l.sidebandOrder !== null && Math.abs(l.sidebandOrder) >= 3).length;
     const factor = clamp01((wide - 1) / (WIDE_SIDEBANDS - 1));
