@@ -1,5 +1,5 @@
 import { existsSync } from 'node:fs';
-import { createHash, randomBytes } from 'node:crypto';
+import { randomBytes } from 'node:crypto';
 import fastifyRateLimit from '@fastify/rate-limit';
 import fastifyStatic from '@fastify/static';
 import fastifySwagger from '@fastify/swagger';
@@ -7,10 +7,10 @@ import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { LogController, type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { AnalysisPool } from './analysis-pool.js';
-import { authenticate, authorise, bearerToken, type Permission } from './auth.js';
+import { ApiKeyCache, authenticate, authorise, bearerToken, type Permission } from './auth.js';
 import type { ServiceConfig } from './config.js';
 import type { Sql } from './database.js';
-import { registerProblemHandlers } from './http-errors.js';
+import { clientErrorHandler, frameworkErrors, registerProblemHandlers } from './http-errors.js';
 import { ModelCache } from './model-cache.js';
 import { openApiTransform } from './openapi.js';
 import { problem, problemTypes, problemUri } from './problems.js';
@@ -44,6 +44,8 @@ export interface Services {
   sql: Sql;
   models: ModelCache;
   analysis: AnalysisPool;
+  /** Keys found valid lately (auth.ts); key routes drop revoked ones from it. */
+  keys: ApiKeyCache;
   config: AppConfig;
 }
 
@@ -69,6 +71,8 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     // one line per request (below), not two, and none for the demo's in-process requests
     logController: new LogController({ disableRequestLogging: true }),
     ajv: { customOptions: { coerceTypes: false } },
+    frameworkErrors,
+    clientErrorHandler,
   }).withTypeProvider<ZodTypeProvider>();
   app.setValidatorCompiler(validatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
@@ -81,6 +85,7 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     sql: options.sql,
     models: new ModelCache(),
     analysis: new AnalysisPool(options.config.analysisThreads ?? 0),
+    keys: new ApiKeyCache(),
     config: options.config,
   };
   app.addHook('onClose', async () => services.analysis.close());
@@ -113,15 +118,47 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
   });
   await app.register(fastifySwaggerUi, { routePrefix: '/docs' });
 
+  const keys = services.keys;
   if (options.config.rateLimitMax > 0) {
+    // Addresses whose requests carried keys that are not valid, counted per window: once an address has
+    // spent its budget on bad keys, its further tokens are not even looked up (no database work for guesses).
+    const badKeys = new Map<string, { count: number; resetAt: number }>();
+    const badKeysOf = (ip: string, now: number) => {
+      const entry = badKeys.get(ip);
+      if (entry && entry.resetAt > now) return entry;
+      if (badKeys.size >= 10_000) for (const [k, e] of badKeys) if (e.resetAt <= now) badKeys.delete(k);
+      const fresh = { count: 0, resetAt: now + options.config.rateLimitWindowMs };
+      badKeys.set(ip, fresh);
+      return fresh;
+    };
     await app.register(fastifyRateLimit, {
       global: true,
       max: options.config.rateLimitMax,
       timeWindow: options.config.rateLimitWindowMs,
-      // one budget per key (hashed, so the key never sits in memory as a map key), else per address
-      keyGenerator: (request) => {
+      // One budget per valid key (by its id), else one per client address: without a valid key, random
+      // tokens share their address's budget instead of each getting one of its own. The key found here is
+      // kept for the authentication hook, so a request is looked up once.
+      keyGenerator: async (request) => {
         const token = bearerToken(request);
-        return token ? `key:${createHash('sha256').update(token).digest('base64url').slice(0, 22)}` : `ip:${request.ip}`;
+        if (token === null) return `ip:${request.ip}`;
+        const bad = badKeysOf(request.ip, Date.now());
+        if (bad.count >= options.config.rateLimitMax) {
+          const seen = keys.seenValid(token);
+          return seen ? `key:${seen.id}` : `ip:${request.ip}`;
+        }
+        let key: ApiKeyRow | null;
+        try {
+          key = await keys.resolve(options.sql, token);
+        } catch {
+          // the database is away: the authentication hook answers 503; count the request to the address
+          return `ip:${request.ip}`;
+        }
+        if (!key) {
+          bad.count++;
+          return `ip:${request.ip}`;
+        }
+        request.apiKey = key;
+        return `key:${key.id}`;
       },
       allowList: (request) =>
         request.url === '/health' || request.url === '/ready' || request.headers['x-kinespec-internal'] === internalToken,
@@ -135,11 +172,12 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     request.log.info({ method: request.method, url: request.url, status: reply.statusCode, ms: Math.round(reply.elapsedTime) }, 'request');
   });
 
-  // authentication before the body is read: an unknown caller cannot make the service buffer an upload
-  app.addHook('onRequest', async (request) => {
+  // Authentication before the body is read (an unknown caller cannot make the service buffer an upload), and
+  // after the rate limit (its onRequest hook, which may already have found the key).
+  app.addHook('preParsing', async (request) => {
     const permission = request.routeOptions.config.permission;
     if (!permission) return;
-    const key = await authenticate(services.sql, request);
+    const key = request.apiKey ?? (await authenticate(services.sql, request, keys));
     authorise(key, permission);
     request.apiKey = key;
   });

@@ -6,6 +6,7 @@ import { evaluateAlarms } from './alarms.js';
 import type { Sql } from './database.js';
 import type { ModelCache } from './model-cache.js';
 import { problem, ProblemError, recordingProblem } from './problems.js';
+import { recordedAtOf } from './recorded-at.js';
 import { packSamples, unpackSamples } from './samples-codec.js';
 import {
   findDuplicateRecording,
@@ -127,18 +128,6 @@ function isUniqueViolation(err: unknown): boolean {
   return typeof err === 'object' && err !== null && (err as { code?: string }).code === '23505';
 }
 
-function recordedAtOf(input: UploadInput, recording: Recording): Date {
-  if (input.recordedAt) return input.recordedAt;
-  for (const key of ['recordedAt', 'recorded_at', 'startTime', 'start_time', 'timestamp']) {
-    const text = recording.metadata[key];
-    if (text) {
-      const at = new Date(text);
-      if (!Number.isNaN(at.getTime())) return at;
-    }
-  }
-  return new Date();
-}
-
 async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer): Promise<UploadResult | null> {
   const earlier = await findDuplicateRecording(sql, {
     siteId: input.key.siteId,
@@ -187,7 +176,7 @@ export async function ingestRecording(
       samples: stored[i]!,
     })),
   };
-  const recordedAt = recordedAtOf(input, recording);
+  const recordedAt = recordedAtOf(input.recordedAt, recording);
   const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);
   const model = modelVersion === null ? null : await models.get(sql, input.machine.id, modelVersion);
   const t1 = performance.now();

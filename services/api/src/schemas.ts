@@ -12,9 +12,19 @@ export const hypothesisRefSchema = z.looseObject({
   score: z.number(),
 });
 
+/** Years a time in a request may name: four-digit ISO 8601 years, all inside PostgreSQL's timestamptz range. */
+const MIN_YEAR = 1;
+const MAX_YEAR = 9999;
+
 export const isoTime = z
   .string()
-  .refine((s) => !Number.isNaN(Date.parse(s)), 'must be an ISO 8601 date or date-time, e.g. 2025-03-14T08:00:00Z')
+  .max(64)
+  .refine((s) => {
+    const t = parseTime(s).getTime();
+    if (Number.isNaN(t)) return false;
+    const year = new Date(t).getUTCFullYear();
+    return year >= MIN_YEAR && year <= MAX_YEAR;
+  }, `must be an ISO 8601 date or date-time in the years ${MIN_YEAR}-${MAX_YEAR}, e.g. 2025-03-14T08:00:00Z`)
   .describe('ISO 8601 date or date-time (UTC when no offset is given)');
 
 /** "2025-03-14" and "2025-03-14T08:00" read as UTC; an explicit offset is kept. */

@@ -7,7 +7,7 @@ import { MAIN_INDICATOR } from '../indicators.js';
 import { parseModelText, storeMachineModel } from '../machine-models.js';
 import { problem } from '../problems.js';
 import { reanalyseMachine } from '../reanalysis.js';
-import { hypothesisRefSchema, idParam, iso, zoneSchema } from '../schemas.js';
+import { hypothesisRefSchema, idParam, iso, isoTime, parseTime, zoneSchema } from '../schemas.js';
 import {
   countOpenAlarmsByMachine,
   findMachine,
@@ -161,7 +161,7 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
         'Optional `validFrom` (ISO time): recordings taken from then on are analysed against this version (default: now).',
       tags: ['machines'],
       params: z.object({ machineId: idParam }),
-      querystring: z.object({ validFrom: z.string().optional() }),
+      querystring: z.object({ validFrom: isoTime.optional() }),
       rawBody: { consumes: MODEL_TYPES, description: 'The machine model file, JSON or YAML' },
       response: { 200: z.object({ machineId: z.string(), version: z.number() }) },
     } as Record<string, unknown>,
@@ -170,12 +170,7 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
     if (typeof body !== 'string' || body.trim() === '') throw problem('bad-request', 'send the machine model file as the body (JSON or YAML)');
     const query = request.query as { validFrom?: string };
     let validFrom: Date | undefined;
-    if (query.validFrom !== undefined) {
-      validFrom = new Date(query.validFrom);
-      if (Number.isNaN(validFrom.getTime())) {
-        throw problem('validation-failed', 'query.validFrom: must be an ISO 8601 time', { errors: [{ path: 'query.validFrom', message: 'must be an ISO 8601 time' }] });
-      }
-    }
+    if (query.validFrom !== undefined) validFrom = parseTime(query.validFrom);
     const model = parseModelText(body, request.headers['content-type']);
     const params = request.params as { machineId: string };
     return storeMachineModel(sql, {
