@@ -29,6 +29,10 @@ const commonOptions = {
   onnotice: () => {},
   // every timestamp is compared and bucketed in UTC, whatever the server's default
   connection: { TimeZone: 'UTC', application_name: 'kinespec' },
+  // After a lost connection, try again within a second at most (the driver's default backs off to 20 s),
+  // so that the service is back within a few seconds of its database; each try costs one TCP connect.
+  backoff: (retries: number) => Math.min(0.05 * 2 ** retries, 1),
+  connect_timeout: 10,
 };
 
 function redact(url: string): string {

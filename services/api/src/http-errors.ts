@@ -1,5 +1,6 @@
 import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
+import { DATABASE_RETRY_AFTER_S, isDatabaseUnavailable } from './database-errors.js';
 import { problem, ProblemError, problemUri, recordingProblem, type FieldError } from './problems.js';
 
 /*
@@ -36,7 +37,7 @@ function byStatus(status: number, message: string): ProblemError {
     case 414: return problem('uri-too-long', message);
     case 415: return problem('unsupported-media-type', message);
     case 429: return problem('rate-limited', message);
-    case 503: return problem('service-unavailable', message);
+    case 503: return problem('service-unavailable', message, { headers: { 'retry-after': String(DATABASE_RETRY_AFTER_S) } });
     default: return problem('bad-request', message);
   }
 }
@@ -55,6 +56,11 @@ export function toProblem(error: unknown): ProblemError | null {
     }));
     const first = errors[0]!;
     return problem('validation-failed', `${first.path}: ${first.message}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
+  }
+  if (isDatabaseUnavailable(error)) {
+    return problem('service-unavailable', 'the database does not answer right now; retry after the time given', {
+      headers: { 'retry-after': String(DATABASE_RETRY_AFTER_S) },
+    });
   }
   const e = error as Partial<FastifyError> & { name?: string; where?: string };
   if (e?.name === 'SignalInputError' && typeof e.code === 'string') return recordingProblem(e.code, e.message ?? '', e.where);
