@@ -1,16 +1,18 @@
 import { existsSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import fastifyRateLimit from '@fastify/rate-limit';
+import underPressure from '@fastify/under-pressure';
 import fastifyStatic from '@fastify/static';
 import fastifySwagger from '@fastify/swagger';
 import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { LogController, type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { AnalysisPool } from './analysis-pool.js';
+import { SampleBudget } from './sample-budget.js';
 import { ApiKeyCache, authenticate, authorise, bearerToken, type Permission } from './auth.js';
 import type { ServiceConfig } from './config.js';
 import type { Sql } from './database.js';
-import { clientErrorHandler, frameworkErrors, registerProblemHandlers } from './http-errors.js';
+import { clientErrorHandler, frameworkErrors, registerProblemHandlers, sendProblem } from './http-errors.js';
 import { ModelCache } from './model-cache.js';
 import { openApiTransform } from './openapi.js';
 import { problem, problemTypes, problemUri } from './problems.js';
@@ -46,11 +48,13 @@ export interface Services {
   analysis: AnalysisPool;
   /** Keys found valid lately (auth.ts); key routes drop revoked ones from it. */
   keys: ApiKeyCache;
+  /** Samples admitted into analysis at once (sample-budget.ts). */
+  budget: SampleBudget;
   config: AppConfig;
 }
 
 export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'> &
-  Partial<Pick<ServiceConfig, 'analysisThreads'>>;
+  Partial<Pick<ServiceConfig, 'analysisThreads' | 'analysisTimeoutMs' | 'maxAnalysisSamples' | 'maxEventLoopDelayMs'>>;
 
 export interface BuildAppOptions {
   sql: Sql;
@@ -84,7 +88,8 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
   const services: Services = {
     sql: options.sql,
     models: new ModelCache(),
-    analysis: new AnalysisPool(options.config.analysisThreads ?? 0),
+    analysis: new AnalysisPool(options.config.analysisThreads ?? 0, 256, options.config.analysisTimeoutMs ?? 60_000),
+    budget: new SampleBudget(options.config.maxAnalysisSamples ?? 2 ** 26),
     keys: new ApiKeyCache(),
     config: options.config,
   };
@@ -117,6 +122,25 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     transform: openApiTransform,
   });
   await app.register(fastifySwaggerUi, { routePrefix: '/docs' });
+
+  // Load shedding: while the event loop lags (every core busy, a flood of requests) new requests answer 503
+  // with Retry-After at once rather than queueing behind the lag; /health keeps answering.
+  const maxDelay = options.config.maxEventLoopDelayMs ?? 1000;
+  if (maxDelay > 0) {
+    await app.register(underPressure, {
+      maxEventLoopDelay: maxDelay,
+      retryAfter: 5,
+      pressureHandler: (request, reply, type, value) => {
+        if (request.url === '/health') {
+          void reply.send({ status: 'ok' });
+          return;
+        }
+        sendProblem(reply, request, problem('service-unavailable', `the service is overloaded (${type} ${typeof value === 'number' ? Math.round(value) : value}); retry after the time given`, {
+          headers: { 'retry-after': '5' },
+        }));
+      },
+    });
+  }
 
   const keys = services.keys;
   if (options.config.rateLimitMax > 0) {

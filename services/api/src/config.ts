@@ -22,6 +22,9 @@ export const envVars = [
   { name: 'KINESPEC_RATE_LIMIT_MAX', defaultText: '1200', description: 'Requests allowed per key (or per client address without a key) in each window; 0 turns rate limiting off.' },
   { name: 'KINESPEC_RATE_LIMIT_WINDOW_MS', defaultText: '60000', description: 'Length of the rate-limit window in milliseconds.' },
   { name: 'KINESPEC_ANALYSIS_THREADS', defaultText: 'the number of CPU cores', description: 'Worker threads that analyse recordings (0 analyses on the main thread).' },
+  { name: 'KINESPEC_ANALYSIS_TIMEOUT_MS', defaultText: '60000', description: 'An analysis on a thread that runs longer is abandoned and answers 503 analysis-timed-out.' },
+  { name: 'KINESPEC_MAX_ANALYSIS_SAMPLES', defaultText: '67108864', description: 'Samples (all channels) decoded or being analysed at once; beyond it uploads answer 503 with Retry-After, a larger recording 413.' },
+  { name: 'KINESPEC_MAX_EVENT_LOOP_DELAY_MS', defaultText: '1000', description: 'Load shedding: while the event loop lags more than this, requests answer 503 with Retry-After; 0 turns it off.' },
   { name: 'KINESPEC_DB_POOL_MAX', defaultText: '10', description: 'Connections in the PostgreSQL pool (server mode; the embedded database always uses 1).' },
   { name: 'KINESPEC_SHUTDOWN_TIMEOUT_MS', defaultText: '10000', description: 'On SIGINT/SIGTERM, how long in-flight requests may take before the process exits anyway.' },
   { name: 'KINESPEC_LOG_LEVEL', defaultText: 'info', description: 'pino log level: fatal, error, warn, info, debug, trace or silent.' },
@@ -44,6 +47,9 @@ export interface ServiceConfig {
   rateLimitWindowMs: number;
   dbPoolMax: number;
   analysisThreads: number;
+  analysisTimeoutMs: number;
+  maxAnalysisSamples: number;
+  maxEventLoopDelayMs: number;
   shutdownTimeoutMs: number;
   logLevel: string;
   consoleDir: string;
@@ -91,6 +97,9 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     rateLimitWindowMs: integer(env, 'KINESPEC_RATE_LIMIT_WINDOW_MS', 60_000, 1),
     dbPoolMax: integer(env, 'KINESPEC_DB_POOL_MAX', 10, 1),
     analysisThreads: Math.min(integer(env, 'KINESPEC_ANALYSIS_THREADS', availableParallelism(), 0), 64),
+    analysisTimeoutMs: integer(env, 'KINESPEC_ANALYSIS_TIMEOUT_MS', 60_000, 100),
+    maxAnalysisSamples: integer(env, 'KINESPEC_MAX_ANALYSIS_SAMPLES', 2 ** 26, 1024),
+    maxEventLoopDelayMs: integer(env, 'KINESPEC_MAX_EVENT_LOOP_DELAY_MS', 1000, 0),
     shutdownTimeoutMs: integer(env, 'KINESPEC_SHUTDOWN_TIMEOUT_MS', 10_000, 0),
     logLevel,
     consoleDir: text(env, 'KINESPEC_CONSOLE_DIR') ?? 'services/console/dist',

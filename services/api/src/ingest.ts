@@ -7,6 +7,7 @@ import type { Sql } from './database.js';
 import type { ModelCache } from './model-cache.js';
 import { problem, ProblemError, recordingProblem } from './problems.js';
 import { recordedAtOf } from './recorded-at.js';
+import type { SampleBudget } from './sample-budget.js';
 import { packSamples, unpackSamples } from './samples-codec.js';
 import {
   findDuplicateRecording,
@@ -154,15 +155,31 @@ async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer
 }
 
 export async function ingestRecording(
-  { sql, models, analysis: pool }: { sql: Sql; models: ModelCache; analysis: AnalysisPool },
+  services: { sql: Sql; models: ModelCache; analysis: AnalysisPool; budget?: SampleBudget },
   input: UploadInput,
 ): Promise<UploadResult> {
+  const { sql } = services;
   const contentHash = createHash('sha256').update(input.bytes).digest();
   const retry = await duplicateResult(sql, input, contentHash);
   if (retry) return retry;
 
   const t0 = performance.now();
   const decoded = decodeBody(input.bytes, input.hint);
+  const release = services.budget?.admit(decoded.channels.reduce((n, c) => n + c.samples.length, 0)) ?? (() => {});
+  try {
+    return await analyseAndStore(services, input, decoded, contentHash, t0);
+  } finally {
+    release();
+  }
+}
+
+async function analyseAndStore(
+  { sql, models, analysis: pool }: { sql: Sql; models: ModelCache; analysis: AnalysisPool },
+  input: UploadInput,
+  decoded: Recording,
+  contentHash: Buffer,
+  t0: number,
+): Promise<UploadResult> {
   const sampleCount = decoded.channels[0]?.samples.length ?? 0;
   const samples = packSamples(decoded.channels.map((c) => c.samples));
   // analyse exactly what is stored (float32), so a re-analysis of the same version repeats the result

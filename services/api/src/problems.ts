@@ -32,6 +32,7 @@ const general = [
   { slug: 'time-out-of-range', status: 400, title: 'A time lies outside the range the service accepts' },
   { slug: 'rate-limited', status: 429, title: 'Too many requests; retry after the time given' },
   { slug: 'internal-error', status: 500, title: 'The service failed unexpectedly' },
+  { slug: 'analysis-timed-out', status: 503, title: 'The analysis took longer than the service allows' },
   { slug: 'service-unavailable', status: 503, title: 'The service is starting, stopping or cannot reach its database' },
 ] as const satisfies readonly ProblemType[];
 
