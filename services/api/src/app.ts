@@ -8,6 +8,7 @@ import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { LogController, type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { AnalysisPool } from './analysis-pool.js';
+import { createMetrics, type ServiceMetrics } from './metrics.js';
 import { SampleBudget } from './sample-budget.js';
 import { ApiKeyCache, authenticate, authorise, bearerToken, type Permission } from './auth.js';
 import type { ServiceConfig } from './config.js';
@@ -50,11 +51,12 @@ export interface Services {
   keys: ApiKeyCache;
   /** Samples admitted into analysis at once (sample-budget.ts). */
   budget: SampleBudget;
+  metrics: ServiceMetrics;
   config: AppConfig;
 }
 
 export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'> &
-  Partial<Pick<ServiceConfig, 'analysisThreads' | 'analysisTimeoutMs' | 'maxAnalysisSamples' | 'maxEventLoopDelayMs'>>;
+  Partial<Pick<ServiceConfig, 'analysisThreads' | 'analysisTimeoutMs' | 'maxAnalysisSamples' | 'maxEventLoopDelayMs' | 'dbPoolMax'>>;
 
 export interface BuildAppOptions {
   sql: Sql;
@@ -85,12 +87,15 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
   app.decorate('internalToken', internalToken);
   registerProblemHandlers(app);
 
+  const analysis = new AnalysisPool(options.config.analysisThreads ?? 0, 256, options.config.analysisTimeoutMs ?? 60_000);
+  const budget = new SampleBudget(options.config.maxAnalysisSamples ?? 2 ** 26);
   const services: Services = {
     sql: options.sql,
     models: new ModelCache(),
-    analysis: new AnalysisPool(options.config.analysisThreads ?? 0, 256, options.config.analysisTimeoutMs ?? 60_000),
-    budget: new SampleBudget(options.config.maxAnalysisSamples ?? 2 ** 26),
+    analysis,
+    budget,
     keys: new ApiKeyCache(),
+    metrics: createMetrics({ sql: options.sql, analysis, budget, dbPoolMax: options.config.dbPoolMax ?? 10 }),
     config: options.config,
   };
   app.addHook('onClose', async () => services.analysis.close());
@@ -185,13 +190,14 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
         return `key:${key.id}`;
       },
       allowList: (request) =>
-        request.url === '/health' || request.url === '/ready' || request.headers['x-kinespec-internal'] === internalToken,
+        request.url === '/health' || request.url === '/ready' || request.url === '/metrics' || request.headers['x-kinespec-internal'] === internalToken,
       errorResponseBuilder: (_request, context) =>
         problem('rate-limited', `rate limit of ${context.max} requests per window reached; retry in ${context.after}`),
     });
   }
 
   app.addHook('onResponse', async (request, reply) => {
+    services.metrics.requests.inc({ method: request.method, route: request.routeOptions.url ?? 'unmatched', status: String(reply.statusCode) });
     if (request.headers['user-agent'] === 'lightMyRequest') return;
     request.log.info({ method: request.method, url: request.url, status: reply.statusCode, ms: Math.round(reply.elapsedTime) }, 'request');
   });
@@ -207,6 +213,12 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
   });
 
   await app.register(healthRoutes, { services, readiness: options.readiness });
+  app.get('/metrics', {
+    schema: { summary: 'Prometheus metrics of this process (text exposition format); no key needed, no site data', tags: ['health'], security: [] },
+  }, async (_request, reply) => {
+    const text = await services.metrics.registry.metrics();
+    return reply.type(services.metrics.registry.contentType).send(text);
+  });
   await app.register(
     async (api) => {
       await api.register(siteRoutes, { services });

@@ -46,7 +46,7 @@ export async function startService(config: ServiceConfig, options: StartOptions 
     const boot = await bootstrap(db.sql, { adminKey: config.adminKey, siteName: demoWanted ? DEMO_SITE_NAME : 'Kinespec site' });
     const app = await buildApp({
       sql: db.sql,
-      config: { ...config, consoleDir: consoleDir(config.consoleDir) },
+      config: { ...config, consoleDir: consoleDir(config.consoleDir), dbPoolMax: db.mode === 'embedded' ? 1 : config.dbPoolMax },
       logger: logger || false,
       readiness: () => seeding,
     });

@@ -165,6 +165,10 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
 
   app.post('/machines/:machineId/points/:pointId/recordings', {
     config: { permission: 'upload' },
+    onResponse: async (_request, reply) => {
+      if (reply.statusCode >= 500) services.metrics.uploads.inc({ outcome: 'failed' });
+      else if (reply.statusCode >= 400) services.metrics.uploads.inc({ outcome: 'refused' });
+    },
     bodyLimit: limit,
     schema: {
       summary: 'Upload a recording of a machine point; it is stored, analysed and trended in one go',
@@ -242,6 +246,8 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       speedRpm: q.speedRpm ?? null,
       defaultUnit: point.unit,
     });
+    services.metrics.uploads.inc({ outcome: result.body.duplicate ? 'duplicate' : 'stored' });
+    if (result.timings) services.metrics.analysisSeconds.observe(result.timings.analysisMs / 1000);
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
     if (result.timings) {
       const t = result.timings;
