@@ -32,6 +32,8 @@ declare module 'fastify' {
   interface FastifyInstance {
     /** Sent as X-Kinespec-Internal by the process's own in-process requests (demo seeding): not rate-limited. */
     internalToken: string;
+    /** Every route with the permission its key needs (none: public), for the authorization matrix test. */
+    routeTable: Array<{ method: string; url: string; permission: Permission | null }>;
   }
   interface FastifyRequest {
     apiKey: ApiKeyRow | null;
@@ -85,6 +87,14 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
   app.decorateRequest('apiKey', null);
   const internalToken = randomBytes(24).toString('base64url');
   app.decorate('internalToken', internalToken);
+  const routeTable: FastifyInstance['routeTable'] = [];
+  app.decorate('routeTable', routeTable);
+  app.addHook('onRoute', (route) => {
+    for (const method of [route.method].flat()) {
+      if (method === 'HEAD') continue;
+      routeTable.push({ method, url: route.url, permission: (route.config as { permission?: Permission } | undefined)?.permission ?? null });
+    }
+  });
   registerProblemHandlers(app);
 
   const analysis = new AnalysisPool(options.config.analysisThreads ?? 0, 256, options.config.analysisTimeoutMs ?? 60_000);

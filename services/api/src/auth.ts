@@ -2,7 +2,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { FastifyRequest } from 'fastify';
 import type { Queryable } from './database.js';
 import { problem } from './problems.js';
-import { findApiKey, type ApiKeyRow, type Role } from './store.js';
+import { findApiKey, touchApiKey, type ApiKeyRow, type Role } from './store.js';
 
 /*
  * API keys: random 32-byte secrets shown once; the store keeps only their SHA-256. Each key belongs to
@@ -15,14 +15,19 @@ import { findApiKey, type ApiKeyRow, type Role } from './store.js';
 
 export const roles = ['logger', 'engineer', 'admin'] as const satisfies readonly Role[];
 
-export type Permission = 'upload' | 'read' | 'acknowledge' | 'manage' | 'site';
+/** Every role a key can hold: the site roles, and 'platform' (creates sites, sees none; only with KINESPEC_PLATFORM_KEY). */
+export const allRoles = [...roles, 'platform'] as const satisfies readonly Role[];
 
-const allowed: Record<Permission, readonly Role[]> = {
+export type Permission = 'upload' | 'read' | 'acknowledge' | 'manage' | 'site' | 'platform';
+
+/** What each permission allows, by role: the one table routes, tests and the README read. */
+export const allowed: Record<Permission, readonly Role[]> = {
   site: ['logger', 'engineer', 'admin'],
   upload: ['logger', 'engineer', 'admin'],
   read: ['engineer', 'admin'],
   acknowledge: ['engineer', 'admin'],
   manage: ['admin'],
+  platform: ['platform'],
 };
 
 const KEY_PREFIX = 'ksk_';
@@ -68,6 +73,8 @@ export class ApiKeyCache {
     const row = await findApiKey(sql, hash);
     this.entries.delete(id);
     if (row) {
+      // last-used time: at most one write a minute per key (touchApiKey), never holding up the request
+      touchApiKey(sql, row.id).catch(() => {});
       if (this.entries.size >= KEY_CACHE_MAX) this.entries.delete(this.entries.keys().next().value!);
       this.entries.set(id, { row, checkedAt: now });
     }
@@ -117,6 +124,7 @@ function describe(permission: Permission): string {
     case 'acknowledge': return 'acknowledge alarms';
     case 'manage': return 'manage machines, models or keys';
     case 'site': return 'read the site';
+    case 'platform': return 'create sites';
   }
 }
 

@@ -17,6 +17,7 @@ export const envVars = [
   { name: 'KINESPEC_HOST', defaultText: '127.0.0.1', description: 'Address to listen on (0.0.0.0 to accept connections from other machines, as in a container). The --host flag wins.' },
   { name: 'KINESPEC_PORT', defaultText: '8080', description: 'TCP port to listen on (0 picks a free one). The --port flag wins.' },
   { name: 'KINESPEC_ADMIN_KEY', defaultText: '(not set)', description: 'Bootstrap admin key of the first site. Not set: a random key is made and printed once, on first start.' },
+  { name: 'KINESPEC_PLATFORM_KEY', defaultText: '(not set)', description: 'A platform key that may create sites (POST /api/v1/sites) and reads nothing. Not set: no platform role.' },
   { name: 'KINESPEC_DEMO', defaultText: 'auto', description: "Seed the demo site: 'auto' (on an empty embedded database), 'on' (on any empty database), 'off'." },
   { name: 'KINESPEC_MAX_UPLOAD_BYTES', defaultText: '33554432', description: 'Largest accepted request body in bytes (32 MiB); larger uploads get 413.' },
   { name: 'KINESPEC_RATE_LIMIT_MAX', defaultText: '1200', description: 'Requests allowed per key (or per client address without a key) in each window; 0 turns rate limiting off.' },
@@ -41,6 +42,7 @@ export interface ServiceConfig {
   host: string;
   port: number;
   adminKey: string | null;
+  platformKey: string | null;
   demo: DemoMode;
   maxUploadBytes: number;
   rateLimitMax: number;
@@ -83,6 +85,8 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
   if (!logLevels.includes(logLevel)) throw new ConfigError(`KINESPEC_LOG_LEVEL (${logLevel}) must be one of ${logLevels.join(', ')}`);
   const adminKey = text(env, 'KINESPEC_ADMIN_KEY');
   if (adminKey !== null && adminKey.length < 16) throw new ConfigError('KINESPEC_ADMIN_KEY must be at least 16 characters long');
+  const platformKey = text(env, 'KINESPEC_PLATFORM_KEY');
+  if (platformKey !== null && platformKey.length < 32) throw new ConfigError('KINESPEC_PLATFORM_KEY must be at least 32 characters long');
   const port = integer(env, 'KINESPEC_PORT', 8080, 0);
   if (port > 65535) throw new ConfigError(`KINESPEC_PORT (${port}) must be at most 65535`);
   return {
@@ -91,6 +95,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     host: text(env, 'KINESPEC_HOST') ?? '127.0.0.1',
     port,
     adminKey,
+    platformKey,
     demo,
     maxUploadBytes: integer(env, 'KINESPEC_MAX_UPLOAD_BYTES', 32 * 1024 * 1024, 1024),
     rateLimitMax: integer(env, 'KINESPEC_RATE_LIMIT_MAX', 1200, 0),

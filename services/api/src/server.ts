@@ -43,7 +43,7 @@ export async function startService(config: ServiceConfig, options: StartOptions 
     const applied = await migrate(db.sql);
     if (logger && applied.length) logger.info({ applied }, 'migrations applied');
     const demoWanted = config.demo === 'on' || (config.demo === 'auto' && db.mode === 'embedded');
-    const boot = await bootstrap(db.sql, { adminKey: config.adminKey, siteName: demoWanted ? DEMO_SITE_NAME : 'Kinespec site' });
+    const boot = await bootstrap(db.sql, { adminKey: config.adminKey, platformKey: config.platformKey, siteName: demoWanted ? DEMO_SITE_NAME : 'Kinespec site' });
     const app = await buildApp({
       sql: db.sql,
       config: { ...config, consoleDir: consoleDir(config.consoleDir), dbPoolMax: db.mode === 'embedded' ? 1 : config.dbPoolMax },

@@ -17,7 +17,7 @@ export function isUuid(id: string): boolean {
 
 // ---------------------------------------------------------------- sites and keys
 
-export type Role = 'logger' | 'engineer' | 'admin';
+export type Role = 'logger' | 'engineer' | 'admin' | 'platform';
 
 export interface ApiKeyRow {
   id: string;
@@ -56,6 +56,39 @@ export async function insertApiKey(
     on conflict (key_hash) do update set key_hash = excluded.key_hash
     returning id, site_id as "siteId", role, label`;
   return row!;
+}
+
+export interface ApiKeyListRow extends ApiKeyRow {
+  createdAt: Date;
+  lastUsedAt: Date | null;
+  revokedAt: Date | null;
+  replacedBy: string | null;
+}
+
+/** Every key of a site (never another's), newest first; the hashes stay in the store. */
+export async function listApiKeys(sql: Queryable, siteId: string): Promise<ApiKeyListRow[]> {
+  return sql<ApiKeyListRow[]>`
+    select id, site_id as "siteId", role, label, created_at as "createdAt", last_used_at as "lastUsedAt",
+      revoked_at as "revokedAt", replaced_by as "replacedBy"
+    from api_keys where site_id = ${siteId} order by created_at desc, id`;
+}
+
+/** Revokes a key of the site; null when the site has no such key. Revoking again keeps the first time. */
+export async function revokeApiKey(sql: Queryable, siteId: string, keyId: string, replacedBy: string | null = null): Promise<ApiKeyListRow | null> {
+  if (!isUuid(keyId)) return null;
+  const [row] = await sql<ApiKeyListRow[]>`
+    update api_keys set revoked_at = coalesce(revoked_at, now()), replaced_by = coalesce(${replacedBy}, replaced_by)
+    where id = ${keyId} and site_id = ${siteId}
+    returning id, site_id as "siteId", role, label, created_at as "createdAt", last_used_at as "lastUsedAt",
+      revoked_at as "revokedAt", replaced_by as "replacedBy"`;
+  return row ?? null;
+}
+
+/** Notes that a key was used; written at most once a minute per key so that busy loggers cost no writes. */
+export async function touchApiKey(sql: Queryable, keyId: string): Promise<void> {
+  await sql`
+    update api_keys set last_used_at = now()
+    where id = ${keyId} and (last_used_at is null or last_used_at < now() - interval '1 minute')`;
 }
 
 export async function findApiKey(sql: Queryable, keyHash: Buffer): Promise<ApiKeyRow | null> {
