@@ -8,7 +8,7 @@ import type { ModelCache } from './model-cache.js';
 import { problem, ProblemError, recordingProblem } from './problems.js';
 import { recordedAtOf } from './recorded-at.js';
 import type { SampleBudget } from './sample-budget.js';
-import { packSamples, unpackSamples } from './samples-codec.js';
+import { packSamples, roundToFloat32 } from './samples-codec.js';
 import {
   findDuplicateRecording,
   getCurrentAnalysis,
@@ -182,8 +182,9 @@ async function analyseAndStore(
 ): Promise<UploadResult> {
   const sampleCount = decoded.channels[0]?.samples.length ?? 0;
   const samples = packSamples(decoded.channels.map((c) => c.samples));
-  // analyse exactly what is stored (float32), so a re-analysis of the same version repeats the result
-  const stored = unpackSamples(samples, decoded.channels.length);
+  // analyse exactly what is stored (float32), so a re-analysis of the same version repeats the result:
+  // rounded in place (the decoder's arrays are ours), not unpacked into a second copy of the recording
+  const stored = decoded.channels.map((c) => roundToFloat32(c.samples));
   const recording: Recording = {
     sampleRateHz: decoded.sampleRateHz,
     metadata: decoded.metadata,
