@@ -1,6 +1,7 @@
 // Long recordings: (1) analyseRecording's cost per sample from 2^16 to 2^24 samples (it should stay flat:
 // every stage is bounded, the envelope goes block by block), and (2) one upload of a 10,000,000-sample
-// recording to a running `kinespec serve` (built: run `npm run build` first) on the embedded database:
+// recording to a running `kinespec serve` (built: run `npm run build` first) on a scratch database of the
+// PostgreSQL server (BENCH_DATABASE_URL, default the local one; LONG_EMBEDDED=1 for the embedded database):
 // its answer time and the server's peak resident memory (VmHWM). Goals: under 10 s and under 600 MB.
 // Prints figures; asserts nothing. Run under the shared lock: flock /tmp/kinespec-heavy.lock npm run bench long
 //
@@ -10,6 +11,7 @@ import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import postgres from 'postgres';
 import { analyseRecording } from '../packages/diagnosis/src/index.js';
 import { loadMachineModel } from '../packages/kinematics/src/index.js';
 import { simulateRecording } from '../packages/simulator/src/index.js';
@@ -61,9 +63,30 @@ async function upload(): Promise<void> {
   const body = Buffer.from(new Float32Array(recordingOf(n)).buffer);
   const dataDir = mkdtempSync(join(tmpdir(), 'kinespec-long-'));
   const adminKey = 'long-bench-admin-key-0123456789';
+  let database = 'embedded';
+  let dropDatabase = async () => {};
+  let databaseUrl: string | undefined;
+  if (!process.env.LONG_EMBEDDED) {
+    const baseUrl = process.env.BENCH_DATABASE_URL ?? 'postgres://postgres@127.0.0.1:5432/postgres';
+    const admin = postgres(baseUrl, { max: 1, onnotice: () => {} });
+    try {
+      const name = `kinespec_bench_long_${Date.now()}`;
+      await admin.unsafe(`create database ${name}`);
+      const url = new URL(baseUrl);
+      url.pathname = `/${name}`;
+      databaseUrl = url.toString();
+      database = 'PostgreSQL server';
+      dropDatabase = async () => {
+        await admin.unsafe(`drop database if exists ${name} with (force)`);
+        await admin.end();
+      };
+    } catch {
+      await admin.end();
+    }
+  }
   const child = spawn(process.execPath, [cli, 'serve', '--port', '0'], {
     env: {
-      ...process.env, KINESPEC_DATA_DIR: dataDir, KINESPEC_DEMO: 'off', KINESPEC_ADMIN_KEY: adminKey, KINESPEC_LOG_LEVEL: 'warn',
+      ...process.env, KINESPEC_DATA_DIR: dataDir, KINESPEC_DEMO: 'off', ...(databaseUrl ? { DATABASE_URL: databaseUrl } : {}), KINESPEC_ADMIN_KEY: adminKey, KINESPEC_LOG_LEVEL: 'warn',
       KINESPEC_MAX_UPLOAD_BYTES: String(body.length + 1024), KINESPEC_RATE_LIMIT_MAX: '0',
     },
     stdio: ['ignore', 'pipe', 'inherit'],
@@ -85,11 +108,11 @@ async function upload(): Promise<void> {
     const idle = hwm();
     const t0 = performance.now();
     const res = await fetch(`${server}/api/v1/machines/${MACHINE}/points/${POINT}/recordings?sampleRateHz=${FS}&unit=g`, {
-      method: 'POST', headers: { ...headers, 'content-type': 'application/octet-stream' }, body,
+      method: 'POST', headers: { ...headers, 'content-type': 'application/octet-stream', prefer: 'wait=120' }, body,
     });
     const text = await res.text();
     const seconds = (performance.now() - t0) / 1000;
-    console.log(`\nupload of ${n.toLocaleString('en')} samples (${(body.length / 2 ** 20).toFixed(0)} MiB raw float32) to kinespec serve, embedded database`);
+    console.log(`\nupload of ${n.toLocaleString('en')} samples (${(body.length / 2 ** 20).toFixed(0)} MiB raw float32) to kinespec serve, ${database}`);
     console.log(`answer ${res.status} in ${seconds.toFixed(1)} s (goal < 10 s); server peak RSS ${hwm().toFixed(0)} MB (goal < 600 MB; ${idle.toFixed(0)} MB before the upload)`);
     console.log(`Server-Timing: ${res.headers.get('server-timing') ?? '-'}`);
     if (res.status >= 300) console.log(text.slice(0, 300));
@@ -97,6 +120,7 @@ async function upload(): Promise<void> {
     child.kill('SIGTERM');
     await new Promise((r) => child.once('exit', r));
     rmSync(dataDir, { recursive: true, force: true });
+    await dropDatabase();
   }
 }
 

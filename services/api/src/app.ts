@@ -8,6 +8,8 @@ import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { LogController, type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { AnalysisPool } from './analysis-pool.js';
+import { analyseQueuedRecording } from './analysis-job.js';
+import { AnalysisQueue } from './analysis-queue.js';
 import { createMetrics, type ServiceMetrics } from './metrics.js';
 import { SampleBudget } from './sample-budget.js';
 import { ApiKeyCache, authenticate, authorise, bearerToken, type Permission } from './auth.js';
@@ -54,14 +56,18 @@ export interface Services {
   /** Samples admitted into analysis at once (sample-budget.ts). */
   budget: SampleBudget;
   metrics: ServiceMetrics;
+  /** The analysis queue (pg-boss) and this process's workers on it. */
+  queue: AnalysisQueue;
   config: AppConfig;
 }
 
 export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'> &
-  Partial<Pick<ServiceConfig, 'analysisThreads' | 'analysisTimeoutMs' | 'maxAnalysisSamples' | 'maxEventLoopDelayMs' | 'dbPoolMax'>>;
+  Partial<Pick<ServiceConfig, 'analysisThreads' | 'analysisTimeoutMs' | 'maxAnalysisSamples' | 'maxEventLoopDelayMs' | 'dbPoolMax' | 'queueWorkers' | 'uploadWaitMs'>>;
 
 export interface BuildAppOptions {
   sql: Sql;
+  /** The server's connection string (server mode): the job queue opens its own small pool there. Null: embedded. */
+  connectionString?: string | null;
   config: AppConfig;
   /** A pino logger, or false for none (tests). */
   logger?: FastifyBaseLogger | false;
@@ -99,15 +105,25 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
 
   const analysis = new AnalysisPool(options.config.analysisThreads ?? 0, 256, options.config.analysisTimeoutMs ?? 60_000);
   const budget = new SampleBudget(options.config.maxAnalysisSamples ?? 2 ** 26);
+  const logError = (err: Error) => (options.logger ? options.logger.warn({ err: err.message }, 'analysis queue') : undefined);
+  const queue = await AnalysisQueue.start(
+    { sql: options.sql, connectionString: options.connectionString ?? null },
+    { expireInSeconds: Math.ceil((options.config.analysisTimeoutMs ?? 60_000) / 1000) + 30, onError: logError },
+  );
   const services: Services = {
     sql: options.sql,
     models: new ModelCache(),
     analysis,
     budget,
     keys: new ApiKeyCache(),
-    metrics: createMetrics({ sql: options.sql, analysis, budget, dbPoolMax: options.config.dbPoolMax ?? 10 }),
+    metrics: createMetrics({ sql: options.sql, analysis, budget, queue, dbPoolMax: options.config.dbPoolMax ?? 10 }),
+    queue,
     config: options.config,
   };
+  const workers = options.config.queueWorkers ?? Math.max(1, options.config.analysisThreads ?? 1);
+  if (workers > 0) queue.startWorkers(workers, (recordingId, context) => analyseQueuedRecording(services, recordingId, context));
+  // the queue's workers stop before the analysis threads and the database pool
+  app.addHook('onClose', async () => queue.close());
   app.addHook('onClose', async () => services.analysis.close());
 
   // graceful shutdown: idle keep-alive connections close at once, busy ones right after their answer

@@ -23,6 +23,8 @@ export const envVars = [
   { name: 'KINESPEC_RATE_LIMIT_MAX', defaultText: '1200', description: 'Requests allowed per key (or per client address without a key) in each window; 0 turns rate limiting off.' },
   { name: 'KINESPEC_RATE_LIMIT_WINDOW_MS', defaultText: '60000', description: 'Length of the rate-limit window in milliseconds.' },
   { name: 'KINESPEC_ANALYSIS_THREADS', defaultText: 'the number of CPU cores', description: 'Worker threads that analyse recordings (0 analyses on the main thread).' },
+  { name: 'KINESPEC_QUEUE_WORKERS', defaultText: 'the analysis threads, at least 1', description: 'Jobs of the analysis queue this process analyses at once; 0 for an API replica that leaves analysis to `kinespec worker` processes.' },
+  { name: 'KINESPEC_UPLOAD_WAIT_MS', defaultText: '5000', description: "How long an upload waits for its analysis before answering 202 with a link to poll (a request's Prefer: wait=N may ask for up to 120 s)." },
   { name: 'KINESPEC_ANALYSIS_TIMEOUT_MS', defaultText: '60000', description: 'An analysis on a thread that runs longer is abandoned and answers 503 analysis-timed-out.' },
   { name: 'KINESPEC_MAX_ANALYSIS_SAMPLES', defaultText: '67108864', description: 'Samples (all channels) decoded or being analysed at once; beyond it uploads answer 503 with Retry-After, a larger recording 413.' },
   { name: 'KINESPEC_MAX_EVENT_LOOP_DELAY_MS', defaultText: '1000', description: 'Load shedding: while the event loop lags more than this, requests answer 503 with Retry-After; 0 turns it off.' },
@@ -50,6 +52,8 @@ export interface ServiceConfig {
   dbPoolMax: number;
   analysisThreads: number;
   analysisTimeoutMs: number;
+  queueWorkers: number;
+  uploadWaitMs: number;
   maxAnalysisSamples: number;
   maxEventLoopDelayMs: number;
   shutdownTimeoutMs: number;
@@ -89,6 +93,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
   if (platformKey !== null && platformKey.length < 32) throw new ConfigError('KINESPEC_PLATFORM_KEY must be at least 32 characters long');
   const port = integer(env, 'KINESPEC_PORT', 8080, 0);
   if (port > 65535) throw new ConfigError(`KINESPEC_PORT (${port}) must be at most 65535`);
+  const analysisThreads = Math.min(integer(env, 'KINESPEC_ANALYSIS_THREADS', availableParallelism(), 0), 64);
   return {
     databaseUrl: text(env, 'DATABASE_URL'),
     dataDir: text(env, 'KINESPEC_DATA_DIR') ?? './data',
@@ -101,8 +106,10 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     rateLimitMax: integer(env, 'KINESPEC_RATE_LIMIT_MAX', 1200, 0),
     rateLimitWindowMs: integer(env, 'KINESPEC_RATE_LIMIT_WINDOW_MS', 60_000, 1),
     dbPoolMax: integer(env, 'KINESPEC_DB_POOL_MAX', 10, 1),
-    analysisThreads: Math.min(integer(env, 'KINESPEC_ANALYSIS_THREADS', availableParallelism(), 0), 64),
+    analysisThreads,
     analysisTimeoutMs: integer(env, 'KINESPEC_ANALYSIS_TIMEOUT_MS', 60_000, 100),
+    uploadWaitMs: integer(env, 'KINESPEC_UPLOAD_WAIT_MS', 5_000, 0),
+    queueWorkers: Math.min(integer(env, 'KINESPEC_QUEUE_WORKERS', Math.max(1, analysisThreads), 0), 64),
     maxAnalysisSamples: integer(env, 'KINESPEC_MAX_ANALYSIS_SAMPLES', 2 ** 26, 1024),
     maxEventLoopDelayMs: integer(env, 'KINESPEC_MAX_EVENT_LOOP_DELAY_MS', 1000, 0),
     shutdownTimeoutMs: integer(env, 'KINESPEC_SHUTDOWN_TIMEOUT_MS', 10_000, 0),

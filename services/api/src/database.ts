@@ -13,6 +13,8 @@ export interface Database {
   mode: 'server' | 'embedded';
   /** Where the data lives, for the start-up banner (password removed). */
   location: string;
+  /** The server's connection string (server mode), for libraries that open their own pool (the job queue). */
+  connectionString: string | null;
   close(): Promise<void>;
 }
 
@@ -54,7 +56,7 @@ function redact(url: string): string {
 export async function openDatabase(options: OpenDatabaseOptions): Promise<Database> {
   if (options.databaseUrl) {
     const sql = postgres(options.databaseUrl, { ...commonOptions, max: options.poolMax ?? 10 }) as unknown as Sql;
-    return { sql, mode: 'server', location: redact(options.databaseUrl), close: () => sql.end({ timeout: 5 }) };
+    return { sql, mode: 'server', location: redact(options.databaseUrl), connectionString: options.databaseUrl, close: () => sql.end({ timeout: 5 }) };
   }
   const [{ PGlite }, { PGLiteSocketServer }] = await Promise.all([
     import('@electric-sql/pglite'),
@@ -78,6 +80,7 @@ export async function openDatabase(options: OpenDatabaseOptions): Promise<Databa
     sql,
     mode: 'embedded',
     location,
+    connectionString: null,
     async close() {
       try {
         await sql.end({ timeout: 5 });

@@ -130,6 +130,8 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
             'content-type': 'audio/wav',
             'idempotency-key': `demo:${model.id}:${pointId}:${slot}`,
             'x-recorded-at': recordedAt.toISOString(),
+            // the demo's history is analysed as it is pushed (RFC 7240 Prefer: wait)
+            prefer: 'wait=120',
           },
           payload: wav,
         });

@@ -1,5 +1,6 @@
 import { collectDefaultMetrics, Counter, Gauge, Histogram, Registry } from 'prom-client';
 import type { AnalysisPool } from './analysis-pool.js';
+import type { AnalysisQueue } from './analysis-queue.js';
 import type { Sql } from './database.js';
 import type { SampleBudget } from './sample-budget.js';
 import { ping } from './store.js';
@@ -18,7 +19,7 @@ export interface ServiceMetrics {
   analysisSeconds: Histogram<string>;
 }
 
-export function createMetrics(sources: { sql: Sql; analysis: AnalysisPool; budget: SampleBudget; dbPoolMax: number }): ServiceMetrics {
+export function createMetrics(sources: { sql: Sql; analysis: AnalysisPool; budget: SampleBudget; queue: AnalysisQueue; dbPoolMax: number }): ServiceMetrics {
   const registry = new Registry();
   collectDefaultMetrics({ register: registry, prefix: 'kinespec_' });
   const requests = new Counter({
@@ -48,6 +49,14 @@ export function createMetrics(sources: { sql: Sql; analysis: AnalysisPool; budge
       const d = sources.analysis.depth;
       this.set({ state: 'waiting' }, d.waiting);
       this.set({ state: 'running' }, d.running);
+    },
+  });
+  new Gauge({
+    name: 'kinespec_queue_jobs_waiting',
+    help: 'Analysis jobs in the PostgreSQL queue not yet taken by a worker (all processes; -1 when the database does not answer)',
+    registers: [registry],
+    async collect() {
+      this.set(await sources.queue.depth().catch(() => -1));
     },
   });
   new Gauge({

@@ -45,6 +45,8 @@ export const analysisSummarySchema = z.object({
 export const uploadResultSchema = z.object({
   recordingId: z.string(),
   duplicate: z.boolean(),
+  /** 'queued': stored, its analysis still to come (202); poll GET /recordings/{id}/analysis. */
+  analysisState: z.enum(['queued', 'done']),
   analysis: analysisSummarySchema.nullable(),
 });
 

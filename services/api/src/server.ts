@@ -46,6 +46,7 @@ export async function startService(config: ServiceConfig, options: StartOptions 
     const boot = await bootstrap(db.sql, { adminKey: config.adminKey, platformKey: config.platformKey, siteName: demoWanted ? DEMO_SITE_NAME : 'Kinespec site' });
     const app = await buildApp({
       sql: db.sql,
+      connectionString: db.connectionString,
       config: { ...config, consoleDir: consoleDir(config.consoleDir), dbPoolMax: db.mode === 'embedded' ? 1 : config.dbPoolMax },
       logger: logger || false,
       readiness: () => seeding,

@@ -293,6 +293,8 @@ export interface NewRecording {
   speedRpm: number | null;
   metadata: Record<string, string>;
   uploadedBy: string | null;
+  /** 'queued' when a job of the analysis queue will analyse it. */
+  analysisState?: 'queued' | 'done';
 }
 
 const recordingColumns = (sql: Queryable) => sql`
@@ -329,10 +331,10 @@ export async function findDuplicateRecording(
 export async function insertRecording(tx: Queryable, r: NewRecording): Promise<string> {
   const [row] = await tx<{ id: string }[]>`
     insert into recordings (site_id, point_id, recorded_at, sample_rate_hz, sample_count, channels, samples,
-      content_hash, idempotency_key, source_format, speed_rpm, metadata, uploaded_by)
+      content_hash, idempotency_key, source_format, speed_rpm, metadata, uploaded_by, analysis_state)
     values (${r.siteId}, ${r.pointId}, ${r.recordedAt}, ${r.sampleRateHz}, ${r.sampleCount}, ${json(tx, r.channels)},
       decode(${r.samples.toString('base64')}, 'base64'), ${r.contentHash}, ${r.idempotencyKey}, ${r.sourceFormat}, ${r.speedRpm}, ${json(tx, r.metadata)},
-      ${r.uploadedBy})
+      ${r.uploadedBy}, ${r.analysisState ?? 'done'})
     returning id`;
   return row!.id;
 }
@@ -342,6 +344,39 @@ export async function getRecording(sql: Queryable, siteId: string, recordingId: 
   const [row] = await sql<RecordingRow[]>`
     select ${recordingColumns(sql)} from recordings r join points p on p.id = r.point_id join machines m on m.id = p.machine_id
     where r.id = ${recordingId} and r.site_id = ${siteId}`;
+  return row ?? null;
+}
+
+export type AnalysisState = 'queued' | 'done' | 'failed';
+
+/** Where a recording's analysis stands, and the problem it failed with; null for an unknown id. */
+export async function getAnalysisState(
+  sql: Queryable,
+  recordingId: string,
+): Promise<{ state: AnalysisState; problem: { slug: string; detail: string; code?: string } | null } | null> {
+  const [row] = await sql<{ state: AnalysisState; problem: { slug: string; detail: string; code?: string } | null }[]>`
+    select analysis_state as state, analysis_problem as problem from recordings where id = ${recordingId}`;
+  return row ?? null;
+}
+
+export async function setAnalysisState(
+  tx: Queryable,
+  recordingId: string,
+  state: AnalysisState,
+  problem: { slug: string; detail: string; code?: string } | null = null,
+): Promise<void> {
+  await tx`update recordings set analysis_state = ${state}, analysis_problem = ${problem === null ? null : json(tx, problem)} where id = ${recordingId}`;
+}
+
+/** What a worker needs of a queued recording: the row, its point and machine. */
+export async function recordingForAnalysis(
+  sql: Queryable,
+  recordingId: string,
+): Promise<(RecordingRow & { machineId: number; state: AnalysisState }) | null> {
+  const [row] = await sql<(RecordingRow & { machineId: number; state: AnalysisState })[]>`
+    select ${recordingColumns(sql)}, m.id as "machineId", r.analysis_state as state
+    from recordings r join points p on p.id = r.point_id join machines m on m.id = p.machine_id
+    where r.id = ${recordingId}`;
   return row ?? null;
 }
 

@@ -19,6 +19,7 @@ import {
 import {
   findMachine,
   findPoint,
+  getAnalysisState,
   getCurrentAnalysis,
   getRecording,
   listAnalyses,
@@ -38,6 +39,16 @@ export const RECORDING_TYPES = [
   'application/json',
   'application/octet-stream',
 ];
+
+/** The longest wait a request may ask for with Prefer: wait=N (RFC 7240 §4.3). */
+const MAX_PREFER_WAIT_S = 120;
+
+/** How long this upload waits for its analysis: Prefer: wait=N seconds when given, else the configured wait. */
+function uploadWaitMs(request: FastifyRequest, configured: number): number {
+  const prefer = request.headers['prefer'];
+  const m = typeof prefer === 'string' ? /(?:^|[;,\s])wait=(\d+)/i.exec(prefer) : null;
+  return m ? Math.min(Number(m[1]), MAX_PREFER_WAIT_S) * 1000 : configured;
+}
 
 /** A form carries one file (the recording) and at most this many fields (the query parameters, as text). */
 const MAX_FORM_FILES = 1;
@@ -190,7 +201,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
         'x-speed-rpm': z.string().optional(),
       }),
       rawBody: { consumes: [...RECORDING_TYPES, 'multipart/form-data'], description: 'The recording file' },
-      response: { 200: uploadResultSchema, 201: uploadResultSchema },
+      response: { 200: uploadResultSchema, 201: uploadResultSchema, 202: uploadResultSchema },
     } as Record<string, unknown>,
   }, async (request, reply) => {
     const key = request.apiKey!;
@@ -245,14 +256,18 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       recordedAt,
       speedRpm: q.speedRpm ?? null,
       defaultUnit: point.unit,
-    });
+    }, uploadWaitMs(request, services.config.uploadWaitMs ?? 5_000));
     services.metrics.uploads.inc({ outcome: result.body.duplicate ? 'duplicate' : 'stored' });
-    if (result.timings) services.metrics.analysisSeconds.observe(result.timings.analysisMs / 1000);
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
+    if (result.status === 202) {
+      // stored for good; its analysis is queued: poll the analysis
+      reply.header('location', `/api/v1/recordings/${result.body.recordingId}/analysis`);
+      reply.header('retry-after', '1');
+    }
     if (result.timings) {
       const t = result.timings;
-      // W3C Server Timing: where an upload's time went
-      reply.header('server-timing', `decode;dur=${t.decodeMs.toFixed(1)}, analysis;dur=${t.analysisMs.toFixed(1)}, store;dur=${t.storeMs.toFixed(1)}`);
+      // W3C Server Timing: where an upload's time went (analysis: the wait for the queued analysis)
+      reply.header('server-timing', `decode;dur=${t.decodeMs.toFixed(1)}, store;dur=${t.storeMs.toFixed(1)}, analysis;dur=${t.analysisMs.toFixed(1)}`);
     }
     return reply.code(result.status).send(result.body);
   });
@@ -331,12 +346,20 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
     config: { permission: 'read' },
     schema: {
       summary: 'The current analysis of a recording: overall levels, plot spectrum, hypotheses with evidence',
+      description: '202 with Retry-After while the analysis is still queued; the problem the recording failed with when it cannot be analysed.',
       tags: ['recordings'],
       params: z.object({ recordingId: z.string().max(64) }),
-      response: { 200: analysisSchema },
+      response: { 200: analysisSchema, 202: z.object({ recordingId: z.string(), analysisState: z.literal('queued') }) },
     },
-  }, async (request) => {
+  }, async (request, reply) => {
     const r = await recordingOf(request.apiKey!.siteId, request.params.recordingId);
+    const state = await getAnalysisState(sql, r.id);
+    if (state?.state === 'queued') {
+      return reply.code(202).header('retry-after', '1').send({ recordingId: r.id, analysisState: 'queued' } as never);
+    }
+    if (state?.state === 'failed' && state.problem) {
+      throw new ProblemError(state.problem.slug, state.problem.detail, { recordingId: r.id, ...(state.problem.code ? { code: state.problem.code } : {}) });
+    }
     const a = await getCurrentAnalysis(sql, r.id);
     if (!a) throw problem('not-found', `recording '${r.id}' has no analysis`);
     return { ...a.result, id: a.id, recordingId: a.recordingId, modelVersion: a.modelVersion, createdAt: iso(a.createdAt), current: true } as z.infer<typeof analysisSchema>;

@@ -13,4 +13,5 @@ export const verbLoaders: Record<string, () => Promise<Verb>> = {
   orders: async () => (await import('./orders.js')).ordersVerb,
   serve: async () => (await import('./serve.js')).serveVerb,
   upload: async () => (await import('./upload.js')).uploadVerb,
+  worker: async () => (await import('./worker.js')).workerVerb,
 };

@@ -1,0 +1,107 @@
+import type { Recording } from '@kinespec/signal';
+import type { AnalysisPool } from './analysis-pool.js';
+import { softwareVersion, type RecordingAnalysis } from './analysis.js';
+import { evaluateAlarms } from './alarms.js';
+import type { JobContext } from './analysis-queue.js';
+import type { Sql } from './database.js';
+import { finite, runAnalysis, storedAnalysisJson } from './ingest.js';
+import type { ServiceMetrics } from './metrics.js';
+import type { ModelCache } from './model-cache.js';
+import { ProblemError } from './problems.js';
+import { unpackSamples } from './samples-codec.js';
+import {
+  getAnalysisState,
+  getPointById,
+  getRecordingSamples,
+  insertAnalysis,
+  lockPoint,
+  modelVersionAt,
+  recordingForAnalysis,
+  setAnalysisState,
+  writeTrendValues,
+} from './store.js';
+
+/*
+ * One job of the analysis queue: analyse a stored recording against the machine's model version of its time,
+ * then in one transaction (the point locked) store the analysis, its trend values and alarms and mark the
+ * recording 'done'. A recording the packages refuse (too short, not a vibration unit) is marked 'failed' with
+ * the problem the upload answers; nothing is retried for it. Any other error is thrown, so that the queue
+ * retries the job; on its last try the recording is marked 'failed' (internal-error) before the error goes on.
+ * A job repeated after its worker died (pg-boss expiry) finds the recording 'done' and stops: no second analysis.
+ */
+
+export interface JobServices {
+  sql: Sql;
+  models: ModelCache;
+  analysis: AnalysisPool;
+  metrics?: ServiceMetrics;
+}
+
+export async function analyseQueuedRecording(services: JobServices, recordingId: string, context: JobContext): Promise<void> {
+  const { sql } = services;
+  const row = await recordingForAnalysis(sql, recordingId);
+  if (!row || row.state !== 'queued') return;
+  try {
+    const point = await getPointById(sql, row.pointId);
+    if (!point) return;
+    const modelVersion = await modelVersionAt(sql, row.machineId, row.recordedAt);
+    const model = modelVersion === null ? null : await services.models.get(sql, row.machineId, modelVersion);
+    const recording = context.local ?? (await storedRecording(sql, recordingId, row));
+    if (!recording) return;
+    const t0 = performance.now();
+    let analysis: RecordingAnalysis;
+    try {
+      analysis = await runAnalysis(services.analysis, recording, {
+        model,
+        pointId: point.pointKey,
+        pointUnit: point.unit,
+        ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
+      });
+    } catch (err) {
+      if (err instanceof ProblemError && err.problem.slug === 'analysis-failed') {
+        await setAnalysisState(sql, recordingId, 'failed', { slug: 'analysis-failed', detail: err.detail, ...(typeof err.extras['code'] === 'string' ? { code: err.extras['code'] } : {}) });
+        return;
+      }
+      throw err;
+    }
+    services.metrics?.analysisSeconds.observe((performance.now() - t0) / 1000);
+    const resultJson = storedAnalysisJson(analysis);
+    const top = analysis.hypotheses[0];
+    await sql.begin(async (tx) => {
+      await lockPoint(tx, row.pointId);
+      // a repeated job (its first worker died after storing) must not analyse twice
+      const now = await getAnalysisState(tx, recordingId);
+      if (now?.state !== 'queued') return;
+      const stored = await insertAnalysis(tx, {
+        recordingId,
+        modelVersion,
+        softwareVersion: analysis.softwareVersion ?? softwareVersion(),
+        speedHz: finite(analysis.speedHz),
+        speedSource: analysis.speedSource,
+        velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
+        zone: analysis.overall.zone,
+        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
+        resultJson,
+      });
+      await writeTrendValues(tx, { pointId: row.pointId, recordingId, analysisId: stored.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
+      await evaluateAlarms(tx, { siteId: row.siteId, point, recordingId, recordedAt: row.recordedAt, indicators: analysis.indicators });
+      await setAnalysisState(tx, recordingId, 'done');
+    });
+  } catch (err) {
+    if (context.lastAttempt) {
+      await setAnalysisState(sql, recordingId, 'failed', { slug: 'internal-error', detail: 'the analysis failed on every try; the service log holds the details' }).catch(() => {});
+    }
+    throw err;
+  }
+}
+
+async function storedRecording(sql: Sql, recordingId: string, row: { sampleRateHz: number; metadata: Record<string, string>; channels: Array<{ name: string; unit: string }> }): Promise<Recording | null> {
+  const bytes = await getRecordingSamples(sql, recordingId);
+  if (!bytes) return null;
+  const channels = unpackSamples(bytes, row.channels.length);
+  return {
+    sampleRateHz: row.sampleRateHz,
+    metadata: row.metadata,
+    channels: row.channels.map((c, i) => ({ name: c.name, unit: c.unit, samples: channels[i]! })),
+  };
+}
