@@ -74,9 +74,11 @@ function startProcess(name: string, verb: 'serve' | 'worker', env: Record<string
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   const proc: Proc = { name, child, peakRssMb: 0 };
-  child.stderr!.on('data', () => {});
+  let out = '';
+  child.stderr!.on('data', (chunk: Buffer) => {
+    if (out.length < 4000) out += chunk.toString();
+  });
   return new Promise((resolve, reject) => {
-    let out = '';
     const timer = setTimeout(() => reject(new Error(`${name} did not start: ${out}`)), 90_000);
     child.stdout!.on('data', (chunk: Buffer) => {
       out += chunk.toString();
@@ -234,7 +236,7 @@ export async function soak(options: SoakOptions): Promise<SoakReport> {
         await new Promise((r) => setTimeout(r, 500));
       }
       const rows = await sql<{ key: string; id: string; hash: string; state: string; n: number }[]>`
-        select idempotency_key as key, min(id::text) as id, encode(min(content_hash), 'hex') as hash, min(analysis_state) as state,
+        select idempotency_key as key, min(id::text) as id, encode((array_agg(content_hash))[1], 'hex') as hash, min(analysis_state) as state,
           count(*)::int as n
         from recordings where idempotency_key like 'soak-%' group by idempotency_key`;
       const byKey = new Map(rows.map((r) => [r.key, r]));

@@ -29,8 +29,14 @@ export interface IndicatorLevels {
   tripLevel: number | null;
 }
 
-export function levelsOf(point: PointRow, indicator: string): IndicatorLevels {
+/**
+ * The levels of an indicator at a point. For the overall velocity the analysis's own graded levels when given
+ * (`graded`, stored with the analysis: one grading, the package's), else those of the point's model columns
+ * (analyses stored before the levels were kept).
+ */
+export function levelsOf(point: PointRow, indicator: string, graded?: IndicatorLevels | null): IndicatorLevels {
   if (indicator === 'velocity_rms_mm_per_s') {
+    if (graded) return graded;
     const s = severityLevels(0, {
       iso: point.isoGroup && point.isoFoundation ? { group: point.isoGroup, foundation: point.isoFoundation } : null,
       alarmVelocityRmsMmPerS: point.alarmVelocityRmsMmPerS,
@@ -55,7 +61,15 @@ export function alarmState(value: number, levels: IndicatorLevels): AlarmStateNa
 /** Applies the rule to one recording's indicators. Call inside the ingest transaction (point locked). */
 export async function evaluateAlarms(
   tx: Queryable,
-  r: { siteId: string; point: PointRow; recordingId: string; recordedAt: Date; indicators: Record<string, number> },
+  r: {
+    siteId: string;
+    point: PointRow;
+    recordingId: string;
+    recordedAt: Date;
+    indicators: Record<string, number>;
+    /** The analysis's graded alarm and trip levels of the overall velocity (analysis-row.ts velocityLevels). */
+    velocityLevels?: IndicatorLevels | null;
+  },
 ): Promise<void> {
   const newest = await newestRecordedAt(tx, r.point.id, r.recordingId);
   if (newest !== null && newest > r.recordedAt) return;
@@ -63,7 +77,7 @@ export async function evaluateAlarms(
   const openByIndicator = new Map(open.map((a) => [a.indicator, a]));
   for (const [indicator, value] of Object.entries(r.indicators)) {
     if (!Number.isFinite(value)) continue;
-    const levels = levelsOf(r.point, indicator);
+    const levels = levelsOf(r.point, indicator, r.velocityLevels);
     const state = alarmState(value, levels);
     if (state === null) continue;
     const current = openByIndicator.get(indicator);

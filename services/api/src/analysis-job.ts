@@ -1,10 +1,11 @@
 import type { Recording } from '@kinespec/signal';
 import type { AnalysisPool } from './analysis-pool.js';
-import { softwareVersion, type RecordingAnalysis } from './analysis.js';
+import type { RecordingAnalysis } from './analysis.js';
+import { analysisRow, velocityLevels } from './analysis-row.js';
 import { evaluateAlarms } from './alarms.js';
 import type { JobContext } from './analysis-queue.js';
 import type { Sql } from './database.js';
-import { finite, runAnalysis, storedAnalysisJson } from './ingest.js';
+import { runAnalysis } from './ingest.js';
 import type { ServiceMetrics } from './metrics.js';
 import type { ModelCache } from './model-cache.js';
 import { ProblemError } from './problems.js';
@@ -65,26 +66,15 @@ export async function analyseQueuedRecording(services: JobServices, recordingId:
       throw err;
     }
     services.metrics?.analysisSeconds.observe((performance.now() - t0) / 1000);
-    const resultJson = storedAnalysisJson(analysis);
-    const top = analysis.hypotheses[0];
+    const stored = analysisRow(recordingId, modelVersion, analysis);
     await sql.begin(async (tx) => {
       await lockPoint(tx, row.pointId);
       // a repeated job (its first worker died after storing) must not analyse twice
       const now = await getAnalysisState(tx, recordingId);
       if (now?.state !== 'queued') return;
-      const stored = await insertAnalysis(tx, {
-        recordingId,
-        modelVersion,
-        softwareVersion: analysis.softwareVersion ?? softwareVersion(),
-        speedHz: finite(analysis.speedHz),
-        speedSource: analysis.speedSource,
-        velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
-        zone: analysis.overall.zone,
-        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        resultJson,
-      });
-      await writeTrendValues(tx, { pointId: row.pointId, recordingId, analysisId: stored.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
-      await evaluateAlarms(tx, { siteId: row.siteId, point, recordingId, recordedAt: row.recordedAt, indicators: analysis.indicators });
+      const inserted = await insertAnalysis(tx, stored);
+      await writeTrendValues(tx, { pointId: row.pointId, recordingId, analysisId: inserted.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
+      await evaluateAlarms(tx, { siteId: row.siteId, point, recordingId, recordedAt: row.recordedAt, indicators: analysis.indicators, velocityLevels: velocityLevels(analysis) });
       await setAnalysisState(tx, recordingId, 'done');
     });
   } catch (err) {

@@ -1,8 +1,9 @@
 import type { Recording } from '@kinespec/signal';
-import { softwareVersion, type RecordingAnalysis } from './analysis.js';
+import type { RecordingAnalysis } from './analysis.js';
+import { analysisRow, velocityLevels } from './analysis-row.js';
 import { evaluateAlarms } from './alarms.js';
 import type { Sql } from './database.js';
-import { finite, runAnalysis, storedAnalysisJson } from './ingest.js';
+import { runAnalysis } from './ingest.js';
 import type { AnalysisPool } from './analysis-pool.js';
 import type { ModelCache } from './model-cache.js';
 import { problem } from './problems.js';
@@ -56,23 +57,12 @@ export async function reanalyseMachine(
       failed.push({ recordingId: id, reason: err instanceof Error ? err.message : String(err) });
       continue;
     }
-    const top = analysis.hypotheses[0];
     const p = point;
     await sql.begin(async (tx) => {
       await lockPoint(tx, pointId);
-      const stored = await insertAnalysis(tx, {
-        recordingId: id,
-        modelVersion: version,
-        softwareVersion: analysis.softwareVersion ?? softwareVersion(),
-        speedHz: finite(analysis.speedHz),
-        speedSource: analysis.speedSource,
-        velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
-        zone: analysis.overall.zone,
-        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        resultJson: storedAnalysisJson(analysis),
-      });
+      const stored = await insertAnalysis(tx, analysisRow(id, version, analysis));
       await writeTrendValues(tx, { pointId, recordingId: id, analysisId: stored.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
-      await evaluateAlarms(tx, { siteId: machine.siteId, point: p, recordingId: id, recordedAt: row.recordedAt, indicators: analysis.indicators });
+      await evaluateAlarms(tx, { siteId: machine.siteId, point: p, recordingId: id, recordedAt: row.recordedAt, indicators: analysis.indicators, velocityLevels: velocityLevels(analysis) });
     });
     analysed++;
   }

@@ -443,6 +443,10 @@ export interface NewAnalysis {
   speedSource: string | null;
   velocityRmsMmPerS: number | null;
   zone: string | null;
+  /** The analysis's own grading of the overall velocity (alarm-row.ts): stored, never derived again. */
+  alarmState: 'normal' | 'alarm' | 'trip' | null;
+  alarmLevelMmPerS: number | null;
+  tripLevelMmPerS: number | null;
   topHypothesis: { fault: string; component: string; score: number; reason: string } | null;
   /** The RecordingAnalysis as JSON text (made once by the caller, cast to jsonb here). */
   resultJson: string;
@@ -453,9 +457,10 @@ export async function insertAnalysis(tx: Queryable, a: NewAnalysis): Promise<{ i
   await tx`update analyses set is_current = false where recording_id = ${a.recordingId} and is_current`;
   const [row] = await tx<{ id: string; createdAt: Date }[]>`
     insert into analyses (recording_id, model_version, software_version, is_current, speed_hz, speed_source,
-      velocity_rms_mm_per_s, zone, top_hypothesis, result)
+      velocity_rms_mm_per_s, zone, alarm_state, alarm_level_mm_per_s, trip_level_mm_per_s, top_hypothesis, result)
     values (${a.recordingId}, ${a.modelVersion}, ${a.softwareVersion}, true, ${a.speedHz}, ${a.speedSource},
-      ${a.velocityRmsMmPerS}, ${a.zone}, ${a.topHypothesis === null ? null : json(tx, a.topHypothesis)}, ${a.resultJson}::text::jsonb)
+      ${a.velocityRmsMmPerS}, ${a.zone}, ${a.alarmState}, ${a.alarmLevelMmPerS}, ${a.tripLevelMmPerS},
+      ${a.topHypothesis === null ? null : json(tx, a.topHypothesis)}, ${a.resultJson}::text::jsonb)
     returning id, created_at as "createdAt"`;
   return row!;
 }
@@ -544,13 +549,28 @@ export interface BucketRow {
   mean: number;
   max: number;
   last: number;
+  /** Zone and alarm state the analysis of the bucket's largest value graded (graded: true only). */
+  maxZone?: 'A' | 'B' | 'C' | 'D' | null;
+  maxAlarmState?: 'normal' | 'alarm' | 'trip' | null;
 }
 
 /** One indicator of one point, bucketed by UTC day, ISO week (from Monday) or calendar month, in [from, to). */
 export async function trendBuckets(
   sql: Queryable,
-  q: { pointId: number; indicator: string; bucket: Bucket; from: Date; to: Date },
+  q: { pointId: number; indicator: string; bucket: Bucket; from: Date; to: Date; graded?: boolean },
 ): Promise<BucketRow[]> {
+  if (q.graded) {
+    // the overall velocity: each bucket also carries the grading of the analysis behind its largest value
+    return sql<BucketRow[]>`
+      select date_trunc(${q.bucket}, v.recorded_at, 'UTC') as start, count(*)::int as count,
+        min(v.value) as min, avg(v.value) as mean, max(v.value) as max,
+        (array_agg(v.value order by v.recorded_at desc, v.recording_id desc))[1] as last,
+        (array_agg(a.zone order by v.value desc, v.recorded_at desc))[1] as "maxZone",
+        (array_agg(a.alarm_state order by v.value desc, v.recorded_at desc))[1] as "maxAlarmState"
+      from trend_values v left join analyses a on a.id = v.analysis_id
+      where v.point_id = ${q.pointId} and v.indicator = ${q.indicator} and v.recorded_at >= ${q.from} and v.recorded_at < ${q.to}
+      group by 1 order by 1`;
+  }
   return sql<BucketRow[]>`
     select date_trunc(${q.bucket}, recorded_at, 'UTC') as start, count(*)::int as count,
       min(value) as min, avg(value) as mean, max(value) as max,
@@ -558,6 +578,20 @@ export async function trendBuckets(
     from trend_values
     where point_id = ${q.pointId} and indicator = ${q.indicator} and recorded_at >= ${q.from} and recorded_at < ${q.to}
     group by 1 order by 1`;
+}
+
+/** The alarm and trip levels the newest analysed recording of a point was graded with (before `to`); null when none. */
+export async function latestGradedLevels(
+  sql: Queryable,
+  pointId: number,
+  to: Date,
+): Promise<{ alarmLevel: number | null; tripLevel: number | null } | null> {
+  const [row] = await sql<{ alarmLevel: number | null; tripLevel: number | null }[]>`
+    select a.alarm_level_mm_per_s as "alarmLevel", a.trip_level_mm_per_s as "tripLevel"
+    from recordings r join analyses a on a.recording_id = r.id and a.is_current
+    where r.point_id = ${pointId} and r.recorded_at < ${to} and (a.alarm_level_mm_per_s is not null or a.trip_level_mm_per_s is not null)
+    order by r.recorded_at desc limit 1`;
+  return row ?? null;
 }
 
 /** Every indicator recorded at a point (or at every point of a machine), with how many values it has. */

@@ -6,7 +6,7 @@ import type { Services } from '../app.js';
 import { indicatorUnit, INDICATOR_PATTERN, MAIN_INDICATOR } from '../indicators.js';
 import { problem } from '../problems.js';
 import { idParam, iso, isoTime, parseTime, zoneSchema } from '../schemas.js';
-import { findMachine, findPoint, fleetRanking, listIndicators, listPoints, trendBuckets, type PointRow } from '../store.js';
+import { findMachine, findPoint, fleetRanking, latestGradedLevels, listIndicators, listPoints, trendBuckets, type PointRow } from '../store.js';
 
 const indicatorParam = z.string().regex(INDICATOR_PATTERN, 'must be an indicator name such as velocity_rms_mm_per_s or score:bearing-outer-race:input-de');
 
@@ -77,9 +77,14 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
     if (!(from < to)) {
       throw problem('validation-failed', 'query.from: must lie before query.to', { errors: [{ path: 'query.from', message: 'must lie before query.to' }] });
     }
-    const rows = await trendBuckets(sql, { pointId: point.id, indicator: q.indicator, bucket: q.bucket, from, to });
-    const levels = levelsOf(point, q.indicator);
     const velocity = q.indicator === MAIN_INDICATOR;
+    // the overall velocity is graded once, by the analysis: each bucket reads the zone and alarm state stored
+    // with the analysis of its largest value, and the levels are those of the newest analysis
+    const [rows, graded] = await Promise.all([
+      trendBuckets(sql, { pointId: point.id, indicator: q.indicator, bucket: q.bucket, from, to, graded: velocity }),
+      velocity ? latestGradedLevels(sql, point.id, to) : Promise.resolve(null),
+    ]);
+    const levels = levelsOf(point, q.indicator, graded);
     const pointLevels = {
       iso: pointIso(point),
       alarmVelocityRmsMmPerS: point.alarmVelocityRmsMmPerS,
@@ -104,8 +109,8 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
         mean: b.mean,
         max: b.max,
         last: b.last,
-        zone: velocity ? severityLevels(b.max, pointLevels).zone : null,
-        alarmState: alarmState(b.max, levels),
+        zone: velocity ? b.maxZone ?? null : null,
+        alarmState: velocity ? b.maxAlarmState ?? null : alarmState(b.max, levels),
       })),
     };
   });

@@ -1,0 +1,62 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { auth, makeSite, startTestService, targets, type TestService, type TestSite } from './harness.js';
+import { MACHINE, modelText, POINT, sine, wav } from './fixtures.js';
+
+/*
+ * Grade once, in the analysis: the zone, alarm state and alarm/trip levels the analysis graded the overall
+ * velocity with are stored with it, and the alarm rule and the trends read those, never a second grading
+ * from the point's columns (before: three gradings from two sources).
+ */
+
+for (const target of targets) {
+  describe(`one grading on ${target.name}`, () => {
+    let svc: TestService;
+    let site: TestSite;
+    beforeAll(async () => {
+      svc = await startTestService(target);
+      site = await makeSite(svc.db, 'grading');
+      const put = await svc.app.inject({ method: 'PUT', url: `/api/v1/machines/${MACHINE}/model`, headers: { ...auth(site.keys.admin), 'content-type': 'application/json' }, payload: modelText });
+      expect(put.statusCode).toBe(200);
+    });
+    afterAll(async () => svc?.close());
+
+    const upload = (amplitude: number, at: string) => svc.app.inject({
+      method: 'POST', url: `/api/v1/machines/${MACHINE}/points/${POINT}/recordings?unit=m/s%5E2&recordedAt=${at}`,
+      headers: { ...auth(site.keys.logger), 'content-type': 'audio/wav' }, payload: wav(sine(amplitude, 8192)),
+    });
+
+    it('stores the grading with the analysis and raises alarms from it, not from the point columns', async () => {
+      // a point column that disagrees with the model the analysis graded against: a second grading would alarm
+      await svc.db.sql`update points set alarm_velocity_rms_mm_per_s = 0.001, trip_velocity_rms_mm_per_s = 0.002 where point_key = ${POINT}`;
+      const res = await upload(2, '2025-01-06T08:00:00Z');
+      expect(res.statusCode).toBe(201);
+      const [row] = await svc.db.sql<{ zone: string; alarmState: string; alarmLevel: number; tripLevel: number }[]>`
+        select zone, alarm_state as "alarmState", alarm_level_mm_per_s as "alarmLevel", trip_level_mm_per_s as "tripLevel"
+        from analyses where recording_id = ${res.json().recordingId}`;
+      const analysis = (await svc.app.inject({ url: `/api/v1/recordings/${res.json().recordingId}/analysis`, headers: auth(site.keys.engineer) })).json();
+      expect(row).toEqual({
+        zone: analysis.overall.zone,
+        alarmState: analysis.overall.alarmState,
+        alarmLevel: analysis.overall.alarmLevelMmPerS,
+        tripLevel: analysis.overall.tripLevelMmPerS,
+      });
+      expect(row!.alarmState).toBe('normal');
+      const alarms = (await svc.app.inject({ url: '/api/v1/alarms', headers: auth(site.keys.engineer) })).json() as Array<{ indicator: string }>;
+      expect(alarms.filter((a) => a.indicator === 'velocity_rms_mm_per_s')).toEqual([]);
+    });
+
+    it("reports each trend bucket's zone and alarm state as the analysis of its largest value graded them", async () => {
+      const res = await upload(3, '2025-01-07T08:00:00Z');
+      // a stored grading that no re-derivation from the value and the point's columns would give
+      await svc.db.sql`update analyses set zone = 'D', alarm_state = 'trip', alarm_level_mm_per_s = 1.5, trip_level_mm_per_s = 1.75 where recording_id = ${res.json().recordingId}`;
+      const trend = await svc.app.inject({
+        url: `/api/v1/trends?machine=${MACHINE}&point=${POINT}&bucket=week&from=2025-01-06&to=2025-01-13`, headers: auth(site.keys.engineer),
+      });
+      expect(trend.statusCode).toBe(200);
+      const body = trend.json();
+      expect(body.buckets).toHaveLength(1);
+      expect(body.buckets[0]).toMatchObject({ count: 2, zone: 'D', alarmState: 'trip' });
+      expect([body.alarmLevel, body.tripLevel]).toEqual([1.5, 1.75]);
+    });
+  });
+}
