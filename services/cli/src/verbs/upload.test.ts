@@ -112,7 +112,8 @@ describe('kinespec upload against a flaky server', () => {
         }
         const status = calls === 2 ? 503 : calls === 3 ? 429 : 201;
         seen.push({ key, status });
-        res.writeHead(status, { 'content-type': 'application/json', ...(status === 429 ? { 'retry-after': '0' } : {}) });
+        // the service's load shedding and database outages answer 503 with Retry-After, as rate limits do with 429
+        res.writeHead(status, { 'content-type': 'application/json', ...(status === 429 ? { 'retry-after': '0' } : status === 503 ? { 'retry-after': '1' } : {}) });
         res.end(JSON.stringify(status === 201 ? { recordingId: 'r-1', duplicate: false, analysis: null } : { title: 'busy', detail: 'try later' }));
       });
     });
@@ -129,6 +130,8 @@ describe('kinespec upload against a flaky server', () => {
     expect(seen.map((s) => s.status)).toEqual([0, 503, 429, 201]);
     expect(new Set(seen.map((s) => s.key)).size).toBe(1);
     expect(io.stderr.filter((l) => l.includes('retrying'))).toHaveLength(3);
+    // the 503's Retry-After: 1 was honoured (the backoff alone would have waited about 10 ms)
+    expect(io.stderr.find((l) => l.includes('HTTP 503') || l.includes('busy'))).toMatch(/retrying in 1\.0 s/);
     expect(io.stdout[0]).toContain('recording r-1');
   });
 });
