@@ -28,6 +28,7 @@ export const envVars = [
   { name: 'KINESPEC_ANALYSIS_TIMEOUT_MS', defaultText: '60000', description: 'An analysis on a thread that runs longer is abandoned and answers 503 analysis-timed-out.' },
   { name: 'KINESPEC_MAX_ANALYSIS_SAMPLES', defaultText: '67108864', description: 'Samples (all channels) decoded or being analysed at once; beyond it uploads answer 503 with Retry-After, a larger recording 413.' },
   { name: 'KINESPEC_MAX_EVENT_LOOP_DELAY_MS', defaultText: '1000', description: 'Load shedding: while the event loop lags more than this, requests answer 503 with Retry-After; 0 turns it off.' },
+  { name: 'KINESPEC_SAMPLE_RETENTION_DAYS', defaultText: '0', description: "Raw samples of recordings older than this many days are dropped (hourly); analyses, trends and alarms stay. 0 keeps them for good." },
   { name: 'KINESPEC_DB_POOL_MAX', defaultText: '10', description: 'Connections in the PostgreSQL pool (server mode; the embedded database always uses 1).' },
   { name: 'KINESPEC_SHUTDOWN_TIMEOUT_MS', defaultText: '10000', description: 'On SIGINT/SIGTERM, how long in-flight requests may take before the process exits anyway.' },
   { name: 'KINESPEC_LOG_LEVEL', defaultText: 'info', description: 'pino log level: fatal, error, warn, info, debug, trace or silent.' },
@@ -54,6 +55,7 @@ export interface ServiceConfig {
   analysisTimeoutMs: number;
   queueWorkers: number;
   uploadWaitMs: number;
+  sampleRetentionDays: number;
   maxAnalysisSamples: number;
   maxEventLoopDelayMs: number;
   shutdownTimeoutMs: number;
@@ -109,6 +111,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     analysisThreads,
     analysisTimeoutMs: integer(env, 'KINESPEC_ANALYSIS_TIMEOUT_MS', 60_000, 100),
     uploadWaitMs: integer(env, 'KINESPEC_UPLOAD_WAIT_MS', 5_000, 0),
+    sampleRetentionDays: integer(env, 'KINESPEC_SAMPLE_RETENTION_DAYS', 0, 0),
     queueWorkers: Math.min(integer(env, 'KINESPEC_QUEUE_WORKERS', Math.max(1, analysisThreads), 0), 64),
     maxAnalysisSamples: integer(env, 'KINESPEC_MAX_ANALYSIS_SAMPLES', 2 ** 26, 1024),
     maxEventLoopDelayMs: integer(env, 'KINESPEC_MAX_EVENT_LOOP_DELAY_MS', 1000, 0),

@@ -42,6 +42,10 @@ export async function reanalyseMachine(
       points.set(pointId, point);
     }
     const row = await getRecording(sql, machine.siteId, id);
+    if (row?.samplesPurgedAt) {
+      failed.push({ recordingId: id, reason: `its raw samples were dropped on ${row.samplesPurgedAt.toISOString().slice(0, 10)} (KINESPEC_SAMPLE_RETENTION_DAYS); its earlier analysis stays current` });
+      continue;
+    }
     const bytes = await getRecordingSamples(sql, id);
     if (!row || !bytes) continue;
     const channels = unpackSamples(bytes, row.channels.length);

@@ -8,6 +8,7 @@ import type { ServiceConfig } from './config.js';
 import { openDatabase, type Database } from './database.js';
 import { DEMO_SITE_NAME, seedDemo, type DemoKeys } from './demo-seed.js';
 import { migrate } from './migrate.js';
+import { scheduleSampleRetention } from './sample-retention.js';
 
 /*
  * The running service: database (server or embedded), migrations, the first site and its admin key,
@@ -51,6 +52,8 @@ export async function startService(config: ServiceConfig, options: StartOptions 
       logger: logger || false,
       readiness: () => seeding,
     });
+    const stopRetention = scheduleSampleRetention(db.sql, config.sampleRetentionDays, (err) => logger && logger.warn({ err: String(err) }, 'sample retention'));
+    app.addHook('onClose', async () => stopRetention());
     await app.listen({ port: config.port, host: config.host });
     const address = app.server.address();
     const port = typeof address === 'object' && address ? address.port : config.port;

@@ -277,6 +277,8 @@ export interface RecordingRow {
   sourceFormat: string;
   speedRpm: number | null;
   metadata: Record<string, string>;
+  /** When the retention setting dropped the raw samples; null while they are kept. */
+  samplesPurgedAt: Date | null;
 }
 
 export interface NewRecording {
@@ -301,7 +303,7 @@ const recordingColumns = (sql: Queryable) => sql`
   r.id, r.site_id as "siteId", r.point_id as "pointId", m.machine_key as "machineKey", p.point_key as "pointKey",
   r.recorded_at as "recordedAt", r.received_at as "receivedAt", r.sample_rate_hz as "sampleRateHz",
   r.sample_count as "sampleCount", r.channels, r.content_hash as "contentHash", r.idempotency_key as "idempotencyKey",
-  r.source_format as "sourceFormat", r.speed_rpm as "speedRpm", r.metadata`;
+  r.source_format as "sourceFormat", r.speed_rpm as "speedRpm", r.metadata, r.samples_purged_at as "samplesPurgedAt"`;
 
 /** Serialises every write that touches one point's trends and alarms (ingest, re-analysis). */
 export async function lockPoint(tx: Queryable, pointId: number): Promise<void> {
@@ -378,6 +380,21 @@ export async function recordingForAnalysis(
     from recordings r join points p on p.id = r.point_id join machines m on m.id = p.machine_id
     where r.id = ${recordingId}`;
   return row ?? null;
+}
+
+/**
+ * Drops the raw samples of up to `limit` analysed recordings taken before `before` (the retention setting);
+ * returns how many. Rows, analyses and trends stay. Replicas running it at once skip each other's rows.
+ */
+export async function purgeSamples(sql: Queryable, before: Date, limit: number): Promise<number> {
+  const rows = await sql`
+    update recordings set samples = ''::bytea, samples_purged_at = now()
+    where id in (
+      select id from recordings
+      where recorded_at < ${before} and samples_purged_at is null and analysis_state <> 'queued'
+      order by recorded_at limit ${limit} for update skip locked)
+    returning id`;
+  return rows.count;
 }
 
 export async function getRecordingSamples(sql: Queryable, recordingId: string): Promise<Buffer | null> {

@@ -151,6 +151,8 @@ const recordingMetaSchema = z.object({
   sourceFormat: z.string(),
   speedRpm: z.number().nullable(),
   metadata: z.record(z.string(), z.string()),
+  /** When KINESPEC_SAMPLE_RETENTION_DAYS dropped the raw samples; null while they are kept. */
+  samplesPurgedAt: z.string().nullable(),
 });
 
 export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = async (app, { services }) => {
@@ -339,6 +341,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       sourceFormat: r.sourceFormat,
       speedRpm: r.speedRpm,
       metadata: r.metadata,
+      samplesPurgedAt: iso(r.samplesPurgedAt),
     };
   });
 
