@@ -60,3 +60,35 @@ for (const target of targets) {
     });
   });
 }
+
+for (const target of targets) {
+  describe(`trend values partitioned by month on ${target.name}`, () => {
+    let svc: TestService;
+    let site: TestSite;
+    beforeAll(async () => {
+      svc = await startTestService(target);
+      site = await makeSite(svc.db, 'partitions');
+      await svc.app.inject({ method: 'PUT', url: `/api/v1/machines/${MACHINE}/model`, headers: { ...auth(site.keys.admin), 'content-type': 'application/json' }, payload: modelText });
+    });
+    afterAll(async () => svc?.close());
+
+    it("keeps each month's values in that month's partition and answers the same trend query across them", async () => {
+      const ids: string[] = [];
+      for (const [i, at] of ['2025-01-20T08:00:00Z', '2025-02-03T08:00:00Z'].entries()) {
+        const res = await svc.app.inject({
+          method: 'POST', url: `/api/v1/machines/${MACHINE}/points/${POINT}/recordings?unit=m/s%5E2&recordedAt=${at}`,
+          headers: { ...auth(site.keys.logger), 'content-type': 'audio/wav' }, payload: wav(sine(2 + i, 8192)),
+        });
+        expect(res.statusCode).toBe(201);
+        ids.push(res.json().recordingId);
+      }
+      const parts = await svc.db.sql<{ part: string }[]>`
+        select distinct tableoid::regclass::text as part from trend_values where recording_id in ${svc.db.sql(ids)} order by 1`;
+      expect(parts.map((p) => p.part)).toEqual(['trend_values_2025_01', 'trend_values_2025_02']);
+      const [kind] = await svc.db.sql<{ kind: string }[]>`select relkind::text as kind from pg_class where relname = 'trend_values'`;
+      expect(kind!.kind).toBe('p');
+      const trend = await svc.app.inject({ url: `/api/v1/trends?machine=${MACHINE}&point=${POINT}&bucket=month&from=2025-01-01&to=2025-03-01`, headers: auth(site.keys.engineer) });
+      expect((trend.json().buckets as Array<{ count: number }>).map((b) => b.count)).toEqual([1, 1]);
+    });
+  });
+}

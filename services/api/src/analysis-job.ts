@@ -11,6 +11,7 @@ import type { ModelCache } from './model-cache.js';
 import { ProblemError } from './problems.js';
 import { unpackSamples } from './samples-codec.js';
 import {
+  ensureTrendMonth,
   getAnalysisState,
   getPointById,
   getRecordingSamples,
@@ -67,6 +68,7 @@ export async function analyseQueuedRecording(services: JobServices, recordingId:
     }
     services.metrics?.analysisSeconds.observe((performance.now() - t0) / 1000);
     const stored = analysisRow(recordingId, modelVersion, analysis);
+    await ensureTrendMonth(sql, row.recordedAt);
     await sql.begin(async (tx) => {
       await lockPoint(tx, row.pointId);
       // a repeated job (its first worker died after storing) must not analyse twice

@@ -511,6 +511,32 @@ function dayText(at: Date): string {
   return at.toISOString().slice(0, 10);
 }
 
+/** Month partitions of trend_values this process has made sure of, per database pool. */
+const trendMonths = new WeakMap<object, Set<string>>();
+
+/**
+ * Makes sure trend_values has the partition of the UTC month of `at` (migration 0008), before a transaction
+ * writes values of that month. Once per month and process; a month whose values already sit in the default
+ * partition (written before its partition existed) keeps them there, which the queries read alike.
+ */
+export async function ensureTrendMonth(sql: Queryable, at: Date): Promise<void> {
+  const start = new Date(Date.UTC(at.getUTCFullYear(), at.getUTCMonth(), 1));
+  const end = new Date(Date.UTC(at.getUTCFullYear(), at.getUTCMonth() + 1, 1));
+  const name = `trend_values_${start.toISOString().slice(0, 7).replace('-', '_')}`;
+  const known = trendMonths.get(sql) ?? new Set<string>();
+  trendMonths.set(sql, known);
+  if (known.has(name)) return;
+  try {
+    // identifiers cannot be bound: the name is made from two numbers above, the bounds are ISO times
+    await sql.unsafe(`create table if not exists ${name} partition of trend_values for values from ('${start.toISOString()}') to ('${end.toISOString()}')`);
+  } catch (err) {
+    // 23514: the default partition already holds values of this month; 42P07: a replica made it meanwhile
+    const code = (err as { code?: string }).code;
+    if (code !== '23514' && code !== '42P07') throw err;
+  }
+  known.add(name);
+}
+
 /**
  * Replaces a recording's trend values with those of its current analysis and keeps the daily roll-up
  * in step. A first analysis adds to the day's aggregates; a re-analysis recomputes the day from the
