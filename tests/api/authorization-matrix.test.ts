@@ -15,6 +15,7 @@ import { MACHINE, modelText, POINT, sine, wav } from './fixtures.js';
 const PLATFORM_KEY = 'matrix-platform-key-0123456789abcdefghij';
 
 interface Ids {
+  reanalysisId: string;
   recordingId: string;
   alarmId: string;
   keyId: string;
@@ -28,6 +29,7 @@ const REQUESTS: Record<string, (ids: Ids) => Omit<InjectOptions, 'headers'> & { 
   'PUT /api/v1/machines/:machineId/model': () => ({ method: 'PUT', url: `/api/v1/machines/${MACHINE}/model`, headers: { 'content-type': 'application/json' }, payload: modelText }),
   'POST /api/v1/models/validate': () => ({ method: 'POST', url: '/api/v1/models/validate', headers: { 'content-type': 'application/json' }, payload: modelText }),
   'POST /api/v1/machines/:machineId/reanalyse': () => ({ method: 'POST', url: `/api/v1/machines/${MACHINE}/reanalyse` }),
+  'GET /api/v1/reanalyses/:reanalysisId': (ids) => ({ url: `/api/v1/reanalyses/${ids.reanalysisId}` }),
   'POST /api/v1/machines/:machineId/points/:pointId/recordings': () => ({
     method: 'POST', url: `/api/v1/machines/${MACHINE}/points/${POINT}/recordings?unit=m/s%5E2`, headers: { 'content-type': 'audio/wav' }, payload: wav(sine(1, 4096)),
   }),
@@ -75,7 +77,8 @@ describe('authorization matrix', () => {
     expect(loud.statusCode).toBe(201);
     const alarms = (await svc.app.inject({ url: '/api/v1/alarms', headers: auth(a.keys.engineer) })).json() as Array<{ id: string }>;
     const victim = (await svc.app.inject({ method: "POST", url: "/api/v1/keys", headers: auth(a.keys.admin), payload: { role: "logger", label: "matrix target" } })).json();
-    ids = { recordingId: loud.json().recordingId, alarmId: alarms[0]!.id, keyId: victim.id };
+    const reanalysis = (await svc.app.inject({ method: 'POST', url: `/api/v1/machines/${MACHINE}/reanalyse`, headers: auth(a.keys.admin) })).json();
+    ids = { reanalysisId: reanalysis.reanalysisId, recordingId: loud.json().recordingId, alarmId: alarms[0]!.id, keyId: victim.id };
   });
   afterAll(async () => svc?.close());
 

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { analyseQueuedRecording } from '../../services/api/src/analysis-job.js';
+import { runAnalysisJob } from '../../services/api/src/analysis-job.js';
 import { AnalysisPool } from '../../services/api/src/analysis-pool.js';
 import { AnalysisQueue } from '../../services/api/src/analysis-queue.js';
 import { ModelCache } from '../../services/api/src/model-cache.js';
@@ -45,7 +45,7 @@ for (const target of targets) {
       // a worker process of its own: its own queue client and analysis pool on the same database
       const worker = await AnalysisQueue.start(svc.db, { expireInSeconds: 60 });
       const pool = new AnalysisPool(0);
-      worker.startWorkers(1, (id, context) => analyseQueuedRecording({ sql: svc.db.sql, models: new ModelCache(), analysis: pool }, id, context), 100);
+      worker.startWorkers(1, (job, context) => runAnalysisJob({ sql: svc.db.sql, models: new ModelCache(), analysis: pool }, job, context), 100);
       try {
         let answer = await poll();
         for (let i = 0; i < 100 && answer.statusCode === 202; i++) {
@@ -62,10 +62,37 @@ for (const target of targets) {
       }
     });
 
+    it('runs a re-analysis as jobs: 202 with a progress link, then every recording analysed again', async () => {
+      const started = await svc.app.inject({ method: 'POST', url: `/api/v1/machines/${MACHINE}/reanalyse`, headers: auth(site.keys.admin) });
+      expect(started.statusCode).toBe(202);
+      const { reanalysisId, total } = started.json();
+      expect(started.headers.location).toBe(`/api/v1/reanalyses/${reanalysisId}`);
+      const [count] = await svc.db.sql<{ n: number }[]>`select count(*)::int as n from recordings`;
+      expect(total).toBe(count!.n);
+      const progress = () => svc.app.inject({ url: `/api/v1/reanalyses/${reanalysisId}`, headers: auth(site.keys.engineer) });
+      expect((await progress()).json()).toMatchObject({ analysed: 0, finishedAt: null });
+      const worker = await AnalysisQueue.start(svc.db, { expireInSeconds: 60 });
+      const pool = new AnalysisPool(0);
+      worker.startWorkers(1, (job, context) => runAnalysisJob({ sql: svc.db.sql, models: new ModelCache(), analysis: pool }, job, context), 100);
+      try {
+        let body = (await progress()).json();
+        for (let i = 0; i < 150 && body.finishedAt === null; i++) {
+          await new Promise((r) => setTimeout(r, 100));
+          body = (await progress()).json();
+        }
+        expect(body.finishedAt).not.toBeNull();
+        expect(body.analysed + body.failed.length).toBe(total);
+        const [versions] = await svc.db.sql<{ n: number }[]>`select count(*)::int as n from analyses where is_current`;
+        expect(versions!.n).toBe(body.analysed);
+      } finally {
+        await worker.close();
+      }
+    });
+
     it('keeps a recording the analysis cannot use and answers its 422 with the recording id', async () => {
       const worker = await AnalysisQueue.start(svc.db, { expireInSeconds: 60 });
       const pool = new AnalysisPool(0);
-      worker.startWorkers(1, (id, context) => analyseQueuedRecording({ sql: svc.db.sql, models: new ModelCache(), analysis: pool }, id, context), 100);
+      worker.startWorkers(1, (job, context) => runAnalysisJob({ sql: svc.db.sql, models: new ModelCache(), analysis: pool }, job, context), 100);
       try {
         // 600 samples: an analysis needs at least 1024
         const res = await svc.app.inject({

@@ -3,7 +3,7 @@ import type { AnalysisPool } from './analysis-pool.js';
 import type { RecordingAnalysis } from './analysis.js';
 import { analysisRow, velocityLevels } from './analysis-row.js';
 import { evaluateAlarms } from './alarms.js';
-import type { JobContext } from './analysis-queue.js';
+import type { AnalysisJobData, JobContext } from './analysis-queue.js';
 import type { Sql } from './database.js';
 import { runAnalysis } from './ingest.js';
 import type { ServiceMetrics } from './metrics.js';
@@ -13,6 +13,9 @@ import { unpackSamples } from './samples-codec.js';
 import {
   ensureTrendMonth,
   getAnalysisState,
+  getReanalysis,
+  reanalysisItemDone,
+  recordReanalysisItem,
   getPointById,
   getRecordingSamples,
   insertAnalysis,
@@ -37,6 +40,12 @@ export interface JobServices {
   models: ModelCache;
   analysis: AnalysisPool;
   metrics?: ServiceMetrics;
+}
+
+/** A job of the queue: an upload's first analysis, or one recording of a machine's re-analysis. */
+export async function runAnalysisJob(services: JobServices, job: AnalysisJobData, context: JobContext): Promise<void> {
+  if (job.reanalysisId) await reanalyseRecording(services, job.reanalysisId, job.recordingId);
+  else await analyseQueuedRecording(services, job.recordingId, context);
 }
 
 export async function analyseQueuedRecording(services: JobServices, recordingId: string, context: JobContext): Promise<void> {
@@ -85,6 +94,53 @@ export async function analyseQueuedRecording(services: JobServices, recordingId:
     }
     throw err;
   }
+}
+
+/**
+ * One recording of a re-analysis: analysed again against the re-analysis's model version and made current, or
+ * recorded as failed with the reason (samples dropped by the retention setting, input the packages refuse).
+ * A repeated job finds its item recorded and does nothing.
+ */
+async function reanalyseRecording(services: JobServices, reanalysisId: string, recordingId: string): Promise<void> {
+  const { sql } = services;
+  if (await reanalysisItemDone(sql, reanalysisId, recordingId)) return;
+  const batch = await getReanalysis(sql, null, reanalysisId);
+  const row = await recordingForAnalysis(sql, recordingId);
+  if (!batch || !row) return;
+  const fail = (reason: string) => sql.begin((tx) => recordReanalysisItem(tx, reanalysisId, recordingId, reason));
+  if (row.samplesPurgedAt) {
+    await fail(`its raw samples were dropped on ${row.samplesPurgedAt.toISOString().slice(0, 10)} (KINESPEC_SAMPLE_RETENTION_DAYS); its earlier analysis stays current`);
+    return;
+  }
+  const point = await getPointById(sql, row.pointId);
+  const model = await services.models.get(sql, row.machineId, batch.modelVersion);
+  const recording = await storedRecording(sql, recordingId, row);
+  if (!point || !recording) return;
+  let analysis: RecordingAnalysis;
+  try {
+    analysis = await runAnalysis(services.analysis, recording, {
+      model,
+      pointId: point.pointKey,
+      pointUnit: point.unit,
+      ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
+    });
+  } catch (err) {
+    if (err instanceof ProblemError && err.problem.slug === 'analysis-failed') {
+      await fail(err.detail);
+      return;
+    }
+    throw err;
+  }
+  const stored = analysisRow(recordingId, batch.modelVersion, analysis);
+  await ensureTrendMonth(sql, row.recordedAt);
+  await sql.begin(async (tx) => {
+    await lockPoint(tx, row.pointId);
+    // the item first: a repeated job stops here, and nothing below is written twice
+    if (!(await recordReanalysisItem(tx, reanalysisId, recordingId, null))) return;
+    const inserted = await insertAnalysis(tx, stored);
+    await writeTrendValues(tx, { pointId: row.pointId, recordingId, analysisId: inserted.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
+    await evaluateAlarms(tx, { siteId: row.siteId, point, recordingId, recordedAt: row.recordedAt, indicators: analysis.indicators, velocityLevels: velocityLevels(analysis) });
+  });
 }
 
 async function storedRecording(sql: Sql, recordingId: string, row: { sampleRateHz: number; metadata: Record<string, string>; channels: Array<{ name: string; unit: string }> }): Promise<Recording | null> {

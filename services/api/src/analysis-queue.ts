@@ -24,6 +24,8 @@ export const ANALYSIS_QUEUE = 'kinespec-analysis';
 
 export interface AnalysisJobData {
   recordingId: string;
+  /** Set for a job of a machine's re-analysis (reanalysis.ts): analyse again against that request's model version. */
+  reanalysisId?: string;
 }
 
 export interface JobContext {
@@ -33,7 +35,7 @@ export interface JobContext {
   local: Recording | null;
 }
 
-export type JobHandler = (recordingId: string, context: JobContext) => Promise<void>;
+export type JobHandler = (job: AnalysisJobData, context: JobContext) => Promise<void>;
 
 export interface QueueOptions {
   /** A job whose worker went silent this long is retried (pg-boss expiry): the analysis time limit and some. */
@@ -63,6 +65,8 @@ export class AnalysisQueue {
   private readonly local = new Map<string, { recording: Recording; at: number }>();
   private readonly waiters = new Map<string, Set<() => void>>();
   private wake: Array<() => void> = [];
+  /** Counts kicks, so that a loop whose fetch raced a kick (found nothing, then the job committed) does not sleep. */
+  private kicks = 0;
   private loops: Promise<void>[] = [];
   private stopped = false;
   private localWorkers = 0;
@@ -101,6 +105,17 @@ export class AnalysisQueue {
     await this.boss.send(ANALYSIS_QUEUE, { recordingId } satisfies AnalysisJobData, { db: adapter(tx) });
   }
 
+  /**
+   * Queues the jobs of a re-analysis inside the caller's transaction, one per recording. One send each: pg-boss's
+   * bulk insert passes its jobs as one JSON text parameter, which postgres.js would encode as JSON a second time.
+   */
+  async enqueueReanalysisIn(tx: Queryable, reanalysisId: string, recordingIds: readonly string[]): Promise<void> {
+    const db = adapter(tx);
+    for (const recordingId of recordingIds) {
+      await this.boss.send(ANALYSIS_QUEUE, { recordingId, reanalysisId } satisfies AnalysisJobData, { db });
+    }
+  }
+
   /** After the commit: the decoded recording for a worker of this process, which is woken. */
   offerLocal(recordingId: string, recording: Recording): void {
     const now = Date.now();
@@ -111,6 +126,7 @@ export class AnalysisQueue {
 
   /** Wakes idle local workers (a job was just queued). */
   kick(): void {
+    this.kicks++;
     const wake = this.wake;
     this.wake = [];
     for (const w of wake) w();
@@ -124,6 +140,7 @@ export class AnalysisQueue {
 
   private async loop(handler: JobHandler, pollMs: number): Promise<void> {
     while (!this.stopped) {
+      const kicksBefore = this.kicks;
       let jobs: PgBoss.JobWithMetadata<AnalysisJobData>[];
       try {
         jobs = await this.boss.fetch<AnalysisJobData>(ANALYSIS_QUEUE, { batchSize: 1, includeMetadata: true });
@@ -134,19 +151,20 @@ export class AnalysisQueue {
       }
       const job = jobs[0];
       if (!job) {
-        await this.idle(pollMs);
+        // a job queued while the fetch ran woke nobody: look again at once
+        if (this.kicks === kicksBefore) await this.idle(pollMs);
         continue;
       }
       const recordingId = job.data.recordingId;
-      const offered = this.local.get(recordingId);
-      this.local.delete(recordingId);
+      const offered = job.data.reanalysisId ? undefined : this.local.get(recordingId);
+      if (offered) this.local.delete(recordingId);
       try {
-        await handler(recordingId, { lastAttempt: job.retryCount >= job.retryLimit, local: offered?.recording ?? null });
+        await handler(job.data, { lastAttempt: job.retryCount >= job.retryLimit, local: offered?.recording ?? null });
         await this.boss.complete(ANALYSIS_QUEUE, job.id).catch(() => {});
       } catch (err) {
         await this.boss.fail(ANALYSIS_QUEUE, job.id, { message: err instanceof Error ? err.message : String(err) }).catch(() => {});
       } finally {
-        this.notify(recordingId);
+        this.notify(job.data.reanalysisId ?? recordingId);
       }
     }
   }
@@ -175,22 +193,35 @@ export class AnalysisQueue {
    * says so or every `pollMs` (workers of other processes). Returns the state at the end of the wait.
    */
   async waitFor(recordingId: string, ms: number, pollMs = 100): Promise<AnalysisState> {
+    let state: AnalysisState = 'queued';
+    await this.waitUntil(recordingId, ms, async () => {
+      const row = await getAnalysisState(this.sql, recordingId);
+      state = row?.state ?? 'failed';
+      return state !== 'queued';
+    }, pollMs);
+    return state;
+  }
+
+  /**
+   * Waits up to `ms` until `done()` holds, asking it again whenever a local job of `key` (a recording id, or
+   * a re-analysis id for its jobs) has run, else every `pollMs`. Returns the last answer of `done()`.
+   */
+  async waitUntil(key: string, ms: number, done: () => Promise<boolean>, pollMs = 100): Promise<boolean> {
     const deadline = Date.now() + ms;
     for (;;) {
-      const row = await getAnalysisState(this.sql, recordingId);
-      if (!row || row.state !== 'queued') return row?.state ?? 'failed';
+      if (await done()) return true;
       const left = deadline - Date.now();
-      if (left <= 0) return 'queued';
+      if (left <= 0) return false;
       await new Promise<void>((resolve) => {
-        const set = this.waiters.get(recordingId) ?? new Set();
-        const done = () => {
+        const set = this.waiters.get(key) ?? new Set();
+        const wake = () => {
           clearTimeout(timer);
-          set.delete(done);
+          set.delete(wake);
           resolve();
         };
-        const timer = setTimeout(done, Math.min(left, this.localWorkers > 0 ? 5 * pollMs : pollMs));
-        set.add(done);
-        this.waiters.set(recordingId, set);
+        const timer = setTimeout(wake, Math.min(left, this.localWorkers > 0 ? 5 * pollMs : pollMs));
+        set.add(wake);
+        this.waiters.set(key, set);
       });
     }
   }

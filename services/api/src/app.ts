@@ -8,7 +8,7 @@ import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { LogController, type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { AnalysisPool } from './analysis-pool.js';
-import { analyseQueuedRecording } from './analysis-job.js';
+import { runAnalysisJob } from './analysis-job.js';
 import { AnalysisQueue } from './analysis-queue.js';
 import { createMetrics, type ServiceMetrics } from './metrics.js';
 import { SampleBudget } from './sample-budget.js';
@@ -121,7 +121,7 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     config: options.config,
   };
   const workers = options.config.queueWorkers ?? Math.max(1, options.config.analysisThreads ?? 1);
-  if (workers > 0) queue.startWorkers(workers, (recordingId, context) => analyseQueuedRecording(services, recordingId, context));
+  if (workers > 0) queue.startWorkers(workers, (job, context) => runAnalysisJob(services, job, context));
   // the queue's workers stop before the analysis threads and the database pool
   app.addHook('onClose', async () => queue.close());
   app.addHook('onClose', async () => services.analysis.close());

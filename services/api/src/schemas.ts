@@ -120,3 +120,12 @@ export function iso(d: Date | null): string | null;
 export function iso(d: Date | null): string | null {
   return d === null ? null : d.toISOString();
 }
+
+/** The longest wait a request may ask for with Prefer: wait=N (RFC 7240 §4.3). */
+const MAX_PREFER_WAIT_S = 120;
+
+/** How long a request waits for queued work: its Prefer: wait=N seconds (RFC 7240) when given, else `configuredMs`. */
+export function preferredWaitMs(prefer: string | string[] | undefined, configuredMs: number): number {
+  const m = typeof prefer === 'string' ? /(?:^|[;,\s])wait=(\d+)/i.exec(prefer) : null;
+  return m ? Math.min(Number(m[1]), MAX_PREFER_WAIT_S) * 1000 : configuredMs;
+}

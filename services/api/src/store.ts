@@ -440,6 +440,64 @@ export async function listMachineRecordingIds(
     where p.machine_id = ${machineId} order by r.recorded_at, r.id`;
 }
 
+// ---------------------------------------------------------------- re-analyses
+
+export interface ReanalysisRow {
+  id: string;
+  machineId: number;
+  machineKey: string;
+  modelVersion: number;
+  total: number;
+  analysed: number;
+  failed: Array<{ recordingId: string; reason: string }>;
+  createdAt: Date;
+  finishedAt: Date | null;
+}
+
+export async function createReanalysis(tx: Queryable, r: { machineId: number; modelVersion: number; total: number; createdBy: string | null }): Promise<string> {
+  const [row] = await tx<{ id: string }[]>`
+    insert into reanalyses (machine_id, model_version, total, created_by, finished_at)
+    values (${r.machineId}, ${r.modelVersion}, ${r.total}, ${r.createdBy}, ${r.total === 0 ? new Date() : null})
+    returning id`;
+  return row!.id;
+}
+
+/** The re-analysis of a site's machine with its progress; null for another site's or an unknown id. */
+export async function getReanalysis(sql: Queryable, siteId: string | null, id: string): Promise<ReanalysisRow | null> {
+  if (!isUuid(id)) return null;
+  const [row] = await sql<ReanalysisRow[]>`
+    select r.id, r.machine_id as "machineId", m.machine_key as "machineKey", r.model_version as "modelVersion", r.total,
+      (select count(*)::int from reanalysis_items i where i.reanalysis_id = r.id and i.failure is null) as analysed,
+      coalesce((select jsonb_agg(jsonb_build_object('recordingId', i.recording_id, 'reason', i.failure) order by i.done_at)
+        from reanalysis_items i where i.reanalysis_id = r.id and i.failure is not null), '[]'::jsonb) as failed,
+      r.created_at as "createdAt", r.finished_at as "finishedAt"
+    from reanalyses r join machines m on m.id = r.machine_id
+    where r.id = ${id} and (${siteId}::uuid is null or m.site_id = ${siteId}::uuid)`;
+  return row ?? null;
+}
+
+/**
+ * Records one recording of a re-analysis as done (failure null) or failed; false when it was recorded
+ * already (a repeated job). Marks the re-analysis finished with its last item.
+ */
+export async function recordReanalysisItem(tx: Queryable, reanalysisId: string, recordingId: string, failure: string | null): Promise<boolean> {
+  const inserted = await tx`
+    insert into reanalysis_items (reanalysis_id, recording_id, failure) values (${reanalysisId}, ${recordingId}, ${failure})
+    on conflict do nothing returning recording_id`;
+  if (inserted.count === 0) return false;
+  await tx`
+    update reanalyses set finished_at = now()
+    where id = ${reanalysisId} and finished_at is null
+      and (select count(*) from reanalysis_items where reanalysis_id = ${reanalysisId}) >= total`;
+  return true;
+}
+
+export async function reanalysisItemDone(sql: Queryable, reanalysisId: string, recordingId: string): Promise<boolean> {
+  const [row] = await sql<{ done: boolean }[]>`
+    select exists (select 1 from reanalysis_items where reanalysis_id = ${reanalysisId} and recording_id = ${recordingId}) as done`;
+  return row!.done;
+}
+
 // ---------------------------------------------------------------- analyses
 
 export interface StoredAnalysis {

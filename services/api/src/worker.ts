@@ -1,5 +1,5 @@
 import { pino, type Logger } from 'pino';
-import { analyseQueuedRecording } from './analysis-job.js';
+import { runAnalysisJob } from './analysis-job.js';
 import { AnalysisPool } from './analysis-pool.js';
 import { AnalysisQueue } from './analysis-queue.js';
 import { ConfigError, type ServiceConfig } from './config.js';
@@ -40,7 +40,7 @@ export async function startWorker(config: ServiceConfig, options: { logger?: Log
     });
     const services = { sql: db.sql, models: new ModelCache(), analysis };
     const workers = Math.max(1, config.queueWorkers);
-    queue.startWorkers(workers, (recordingId, context) => analyseQueuedRecording(services, recordingId, context));
+    queue.startWorkers(workers, (job, context) => runAnalysisJob(services, job, context));
     options.out?.(`Kinespec worker: analysing queued recordings (${workers} at once, ${analysis.threads} thread(s)) from ${db.location}`);
     return {
       async close() {

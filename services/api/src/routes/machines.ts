@@ -6,10 +6,12 @@ import type { Services } from '../app.js';
 import { MAIN_INDICATOR } from '../indicators.js';
 import { parseModelText, storeMachineModel } from '../machine-models.js';
 import { problem } from '../problems.js';
-import { reanalyseMachine } from '../reanalysis.js';
-import { hypothesisRefSchema, idParam, iso, isoTime, parseTime, zoneSchema } from '../schemas.js';
+import { awaitReanalysis, startReanalysis } from '../reanalysis.js';
+import { hypothesisRefSchema, idParam, iso, isoTime, parseTime, preferredWaitMs, zoneSchema } from '../schemas.js';
 import {
   countOpenAlarmsByMachine,
+  getReanalysis,
+  type ReanalysisRow,
   findMachine,
   getModelVersion,
   latestPerPoint,
@@ -200,22 +202,57 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
     return result.ok ? { ok: true, problems: [] } : { ok: false, problems: result.problems };
   });
 
+  const reanalysisSchema = z.object({
+    reanalysisId: z.string(),
+    machineId: z.string(),
+    modelVersion: z.number(),
+    total: z.number(),
+    analysed: z.number(),
+    failed: z.array(z.object({ recordingId: z.string(), reason: z.string() })),
+    createdAt: z.string(),
+    finishedAt: z.string().nullable(),
+  });
+  const reanalysisBody = (r: ReanalysisRow): z.infer<typeof reanalysisSchema> => ({
+    reanalysisId: r.id,
+    machineId: r.machineKey,
+    modelVersion: r.modelVersion,
+    total: r.total,
+    analysed: r.analysed,
+    failed: r.failed,
+    createdAt: iso(r.createdAt),
+    finishedAt: iso(r.finishedAt),
+  });
+
   app.post('/machines/:machineId/reanalyse', {
     config: { permission: 'manage' },
     schema: {
-      summary: "Analyse the machine's stored recordings again against its current model version; earlier analyses are kept",
+      summary: "Analyse the machine's stored recordings again against its current model version, as queued jobs; earlier analyses are kept",
+      description:
+        'One job per recording. Answers 200 with the outcome when every job is done within the upload wait (or Prefer: wait=N), ' +
+        'else 202 with Location /api/v1/reanalyses/{id}, which gives the progress.',
       tags: ['machines'],
       params: z.object({ machineId: idParam }),
-      response: {
-        200: z.object({
-          analysed: z.number(),
-          modelVersion: z.number(),
-          failed: z.array(z.object({ recordingId: z.string(), reason: z.string() })),
-        }),
-      },
+      response: { 200: reanalysisSchema, 202: reanalysisSchema },
+    },
+  }, async (request, reply) => {
+    const machine = await machineOf(request.apiKey!.siteId, request.params.machineId);
+    const id = await startReanalysis(services, machine, request.apiKey!.id);
+    const row = await awaitReanalysis(services, request.apiKey!.siteId, id, preferredWaitMs(request.headers['prefer'], services.config.uploadWaitMs ?? 5_000));
+    if (row.finishedAt === null) reply.code(202).header('location', `/api/v1/reanalyses/${id}`).header('retry-after', '1');
+    return reanalysisBody(row);
+  });
+
+  app.get('/reanalyses/:reanalysisId', {
+    config: { permission: 'read' },
+    schema: {
+      summary: "A re-analysis's progress: recordings analysed again and those that could not be, with the reason",
+      tags: ['machines'],
+      params: z.object({ reanalysisId: z.string().max(64) }),
+      response: { 200: reanalysisSchema },
     },
   }, async (request) => {
-    const machine = await machineOf(request.apiKey!.siteId, request.params.machineId);
-    return reanalyseMachine(services, machine);
+    const row = await getReanalysis(sql, request.apiKey!.siteId, request.params.reanalysisId);
+    if (!row) throw problem('not-found', `no re-analysis '${request.params.reanalysisId}' on this site`);
+    return reanalysisBody(row);
   });
 };

@@ -13,6 +13,7 @@ import {
   iso,
   isoTime,
   parseTime,
+  preferredWaitMs,
   uploadResultSchema,
   zoneSchema,
 } from '../schemas.js';
@@ -39,16 +40,6 @@ export const RECORDING_TYPES = [
   'application/json',
   'application/octet-stream',
 ];
-
-/** The longest wait a request may ask for with Prefer: wait=N (RFC 7240 §4.3). */
-const MAX_PREFER_WAIT_S = 120;
-
-/** How long this upload waits for its analysis: Prefer: wait=N seconds when given, else the configured wait. */
-function uploadWaitMs(request: FastifyRequest, configured: number): number {
-  const prefer = request.headers['prefer'];
-  const m = typeof prefer === 'string' ? /(?:^|[;,\s])wait=(\d+)/i.exec(prefer) : null;
-  return m ? Math.min(Number(m[1]), MAX_PREFER_WAIT_S) * 1000 : configured;
-}
 
 /** A form carries one file (the recording) and at most this many fields (the query parameters, as text). */
 const MAX_FORM_FILES = 1;
@@ -258,7 +249,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       recordedAt,
       speedRpm: q.speedRpm ?? null,
       defaultUnit: point.unit,
-    }, uploadWaitMs(request, services.config.uploadWaitMs ?? 5_000));
+    }, preferredWaitMs(request.headers['prefer'], services.config.uploadWaitMs ?? 5_000));
     services.metrics.uploads.inc({ outcome: result.body.duplicate ? 'duplicate' : 'stored' });
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
     if (result.status === 202) {
