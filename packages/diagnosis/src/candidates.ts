@@ -1,9 +1,35 @@
-import { shaftRatios, type MachineModel, type Point } from '@kinespec/kinematics';
+import { bearingFaultOrders, shaftRatios, type BearingFaultOrders, type MachineModel, type Point } from '@kinespec/kinematics';
 import { convertUnit, quantityOfUnit } from '@kinespec/signal';
 import { faultCandidates, predictSignature, type FaultCandidate, type Signature, type SignatureLine } from '@kinespec/signatures';
-import type { Candidate } from './hypothesis-score.js';
+import { faultDescriptors } from './faults/descriptors.js';
+import type { FaultDescriptor } from './faults/fault-descriptor.js';
 import type { ExpectedLine } from './line-matching.js';
 import { modelKey } from './model-key.js';
+
+/** A fault hypothesis ready to be judged: its predicted lines on one spectrum and what it is. */
+export interface Candidate {
+  fault: string;
+  component: string;
+  descriptor: FaultDescriptor;
+  domain: 'spectrum' | 'envelope';
+  /** Predicted lines the spectrum can show, strongest first, in the channel's unit (envelope: unit²). */
+  lines: ExpectedLine[];
+  /** Candidates with the same context compete for the same lines (one shaft, one gear, one bearing). */
+  context: string;
+  /** Components whose catalogue lines are this candidate's own (never make its lines ambiguous). */
+  own: ReadonlySet<string>;
+  /** What the component is, for telling a twin (an identical component at the same speed) from another fault. */
+  kind: 'shaft' | 'gear' | 'mesh' | 'bearing' | 'motor';
+  /** The shaft the component turns with, and its speed over the reference shaft's. */
+  shaft: string;
+  shaftRatio: number;
+  /** The component is the one the sensor sits on (its bearing, its shaft): preferred over an identical twin elsewhere. */
+  atPoint: boolean;
+  /** Components that are the same physical part or identical to it where they sit, named with it (one report). */
+  twins: string[];
+  /** A bearing's defect orders (of its shaft), for its envelope comb. */
+  bearingOrders?: BearingFaultOrders;
+}
 
 export interface CandidateLimits {
   /** Highest and lowest frequency each spectrum can show a line at. */
@@ -19,27 +45,16 @@ export interface CandidateLimits {
  * Rolling elements slip: bearing defect frequencies differ from the kinematic ones by 1–2 %
  * (Randall & Antoni, MSSP 25:485–520, 2011, §2.1), so bearing lines get this much spread of their own.
  */
-const BEARING_SLIP_FRACTION = 0.015;
+export const BEARING_SLIP_FRACTION = 0.015;
 
 /**
- * Depth of the mesh-torque drop each tooth fault stands for: all of it while a missing tooth should be in mesh,
- * half of it for a broken or chipped tooth (the defaults of @kinespec/signatures, passed explicitly here
- * because the tooth-fault level test compares the measured depth with them).
- */
-export const TOOTH_DROP_DEPTH = { 'gear-missing-tooth': 1, 'gear-broken-tooth': 0.5 } as const;
-
-/**
- * Mesh-frequency ripple (transmission error) assumed under a tooth fault, as a fraction of the mean mesh torque:
- * every real mesh has one, and the fault's sidebands around the mesh frequency are its modulation (common
- * practice; Randall 2011 ch. 2, from memory). 0.1 is the ripple @kinespec/signatures assumes for its eccentricity
- * and wear templates; without it the prediction holds only the comb of the torque drop itself.
- */
-export const MESH_RIPPLE_FRACTION = 0.1;
-
-/**
- * Every (fault, component) candidate of the model with its predicted lines at the running speed
- * (@kinespec/signatures predictSignature at the measurement point), kept to the lines the spectra can show,
- * in the unit of the channel analysed.
+ * One candidate per physical part and fault (@kinespec/signatures faultCandidates, each predicted with
+ * predictSignature at the measurement point and running speed), kept to the lines the spectra can show, in the unit
+ * of the channel analysed. One physical part is one candidate:
+ * - the unbalance of a shaft that carries one rotor is the rotor's (the 1× cannot tell them apart; the rotor is what
+ *   is balanced), and a shaft with several rotors keeps the shaft's, naming them;
+ * - bearings of one geometry on one shaft show the same lines at the same speed: one candidate per fault for the
+ *   group, named after the bearing the point is near (else the first in the model), the others its twins.
  */
 export function buildCandidates(model: MachineModel, point: Point, speedHz: number, unit: string, limits: CandidateLimits, warnings: string[]): Candidate[] {
   const meshOfGear = new Map<string, string[]>();
@@ -49,6 +64,8 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
   // shaftRatios throws MachineModelError for a model the validator rejects, before any prediction.
   const ratio = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
   const pointShaft = point.shaft ?? model.bearings.find((b) => b.id === point.near)?.shaft ?? model.speed.shaft;
+  const bearingGroups = twinBearings(model, point, ratio, pointShaft);
+  const sameSpeedShafts = groupsOf(model.shafts.map((sh) => sh.id), (sh) => (ratio.get(sh) ?? 1).toPrecision(9), (members) => (members.includes(pointShaft) ? pointShaft : members[0]!));
   const out: Candidate[] = [];
   for (const p of predictions(model, point, speedHz)) {
     if ('error' in p) {
@@ -56,10 +73,29 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
       continue;
     }
     const { candidate: c, signature } = p;
-    const domain = signature.domain;
+    let twins: string[] = [];
+    if (c.componentKind === 'shaft' || c.componentKind === 'rotor') {
+      const rotors = rotorsOn(c.shaft);
+      // The unbalance of a shaft that carries one rotor is the rotor's; a shaft with several keeps the shaft's.
+      if (c.componentKind === 'shaft' && c.fault === 'unbalance' && rotors.length === 1) continue;
+      if (c.componentKind === 'rotor' && rotors.length > 1) continue;
+      // Shafts at the same speed (a 1:1 pair of timing gears) show the same running lines: one report, at the point's shaft.
+      const group = sameSpeedShafts.get(c.shaft)!;
+      if (group.representative !== c.shaft) continue;
+      const others = group.members.filter((m) => m !== c.shaft);
+      const rotorTwins = c.fault === 'unbalance' ? others.flatMap((m) => [...rotorsOn(m), m]) : others;
+      twins = [...(c.componentKind === 'rotor' ? [c.shaft] : c.fault === 'unbalance' ? rotors : []), ...rotorTwins];
+    }
+    if (c.componentKind === 'bearing') {
+      const group = bearingGroups.get(c.component);
+      if (!group || group.representative !== c.component) continue;
+      twins = group.members.filter((m) => m !== c.component);
+    }
+    const descriptor = faultDescriptors[c.fault];
+    const domain = descriptor.domain;
     const [lowHz, topHz] = domain === 'envelope' ? [limits.envelopeLowHz, limits.envelopeTopHz] : [limits.spectrumLowHz, limits.spectrumTopHz];
     const scale = unitScale(signature.unit, unit);
-    const spread = c.fault.startsWith('bearing-') ? BEARING_SLIP_FRACTION : 0;
+    const spread = domain === 'envelope' ? BEARING_SLIP_FRACTION : 0;
     // Lines at fixed frequencies (twice line frequency) do not move with a speed error, nor with the speed step.
     const fixed = signature.fixedFrequency;
     const stretch = fixed ? 1 : p.speedRatio;
@@ -73,7 +109,7 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
       }
     }
     let context: string;
-    const own = new Set<string>([c.component]);
+    const own = new Set<string>([c.component, ...twins]);
     switch (c.componentKind) {
       case 'rotor':
         context = `shaft:${rotorShaft.get(c.component)}`;
@@ -96,10 +132,44 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
       default:
         context = `motor:${c.component}`;
     }
-    const ownsRunningLines = ['unbalance', 'misalignment', 'looseness', 'gear-wear', 'electrical'].includes(c.fault);
     const kind = c.componentKind === 'rotor' ? 'shaft' : c.componentKind === 'gear-mesh' ? 'mesh' : c.componentKind;
-    const atPoint = c.componentKind === 'bearing' ? point.near === c.component : c.shaft === pointShaft;
-    out.push({ fault: c.fault, component: c.component, domain, lines, context, own, ownsRunningLines, kind, shaftRatio: ratio.get(c.shaft) ?? 1, atPoint });
+    const atPoint = c.componentKind === 'bearing' ? [c.component, ...twins].includes(point.near ?? '') : c.shaft === pointShaft;
+    const bearing = c.componentKind === 'bearing' ? model.bearings.find((b) => b.id === c.component) : undefined;
+    out.push({
+      fault: c.fault, component: c.component, descriptor, domain, lines, context, own, kind, shaft: c.shaft,
+      shaftRatio: ratio.get(c.shaft) ?? 1, atPoint, twins, ...(bearing ? { bearingOrders: bearingFaultOrders(bearing) } : {}),
+    });
+  }
+  return out;
+}
+
+/**
+ * Groups of bearings whose defect lines fall at the same frequencies (the same defect orders on shafts turning at the
+ * same speed), each with the member that stands for it: the bearing the point is near, else one on the point's shaft,
+ * else the first in the model.
+ */
+function twinBearings(model: MachineModel, point: Point, ratio: ReadonlyMap<string, number>, pointShaft: string): Map<string, { representative: string; members: string[] }> {
+  const shaftOf = new Map(model.bearings.map((b) => [b.id, b.shaft]));
+  return groupsOf(
+    model.bearings.map((b) => b.id),
+    (id) => {
+      const b = model.bearings.find((x) => x.id === id)!;
+      const o = bearingFaultOrders(b);
+      const r = ratio.get(b.shaft) ?? 1;
+      return [o.bpfo, o.bpfi, o.bsf, o.ftf].map((x) => (x * r).toPrecision(9)).join('|');
+    },
+    (members) => (members.includes(point.near ?? '') ? point.near! : members.find((m) => shaftOf.get(m) === pointShaft) ?? members[0]!),
+  );
+}
+
+/** Partitions ids by a key, each group with the member `pick` chooses to stand for it. */
+function groupsOf(ids: readonly string[], key: (id: string) => string, pick: (members: string[]) => string): Map<string, { representative: string; members: string[] }> {
+  const groups = new Map<string, string[]>();
+  for (const id of ids) groups.set(key(id), [...(groups.get(key(id)) ?? []), id]);
+  const out = new Map<string, { representative: string; members: string[] }>();
+  for (const members of groups.values()) {
+    const representative = pick(members);
+    for (const m of members) out.set(m, { representative, members });
   }
   return out;
 }
@@ -161,7 +231,7 @@ function predictions(model: MachineModel, point: Point, speedHz: number): Predic
           component: candidate.component,
           speedRpm: gridHz * 60,
           point: point.id,
-          ...(candidate.fault === 'gear-missing-tooth' || candidate.fault === 'gear-broken-tooth' ? { depthFraction: TOOTH_DROP_DEPTH[candidate.fault], rippleFraction: MESH_RIPPLE_FRACTION } : {}),
+          ...faultDescriptors[candidate.fault].prediction,
         });
         return { candidate, signature: predictedLines(signature), speedRatio: 1 };
       } catch (err) {

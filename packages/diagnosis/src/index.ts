@@ -21,7 +21,7 @@ export { timeIndicators, type TimeIndicators } from './time-indicators.js';
 export { accelerationSignal } from './acceleration-signal.js';
 export { spectralKurtosis, type SpectralKurtosis, type SpectralKurtosisOptions } from './spectral-kurtosis.js';
 export { fastKurtogram, type Kurtogram, type KurtogramBand, type KurtogramOptions } from './kurtogram.js';
-export { envelopeBand, type EnvelopeBand } from './envelope-band.js';
+export { envelopeStage, type EnvelopeStage } from './envelope-stage.js';
 export { powerCepstrum, cepstralPeak, type Cepstrum, type CepstralPeak } from './cepstrum.js';
 export {
   lineToleranceHz,
@@ -35,5 +35,12 @@ export {
 export { speedFromSpectrum, type SpectrumSpeed, type SpectrumSpeedOptions } from './running-speed.js';
 export { speedFromTach, type TachSpeed } from './tach-speed.js';
 export { LineCatalogue, type CatalogueLine } from './ambiguity.js';
-export { scoreCandidates, evidenceOf, type Candidate, type ScoredCandidate, type ScoreParts, type ScoringInputs } from './hypothesis-score.js';
+export { judgeHypotheses, pathShape, predictionScale, type Judged, type JudgedLine, type JudgeInputs, type ScoreParts } from './hypotheses.js';
+export { buildCandidates, type Candidate, type CandidateLimits } from './candidates.js';
+export { faultDescriptors, TOOTH_DROP_DEPTH, MESH_RIPPLE_FRACTION } from './faults/descriptors.js';
+export type { FaultDescriptor, GateName, LevelRule, BearingCombRule } from './faults/fault-descriptor.js';
+export { gates, GATE_CLOSED_FACTOR } from './faults/gates.js';
+export { bayesFactorBound, chanceModel, chanceOfPeak, correctedForSearch, evidenceOf, fisherCombined, EVIDENCE_HALF_BAYES_FACTOR } from './evidence/chance.js';
+export { claimShared, searchCombs, type BearingComb, type CombEvidence, type BandSource } from './evidence/bearing-comb.js';
+export { weighPattern, type LinePattern, type WeighedLine } from './evidence/line-evidence.js';
 export { gearSynchronousAverages, gearTsaIndicators, TSA_MESH_HARMONICS, type GearTsa } from './gear-tsa.js';

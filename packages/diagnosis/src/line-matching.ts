@@ -124,7 +124,8 @@ export function matchLine(measured: MatchableSpectrum, line: ExpectedLine, toler
   };
 }
 
-function firstAtOrAbove(sorted: Int32Array, value: number): number {
+/** Index of the first element of an ascending array that is >= value (its length when none is). */
+export function firstAtOrAbove(sorted: Int32Array, value: number): number {
   let lo = 0;
   let hi = sorted.length;
   while (lo < hi) {
@@ -159,6 +160,11 @@ export function peakAt(measured: MatchableSpectrum, k: number): PeakInterpolatio
     measured.memo.peaks.set(k, p);
   }
   return p;
+}
+
+/** Whether the local maximum at bin k is only window leakage of a stronger line nearby (computed once per bin). */
+export function isLeakagePeak(measured: MatchableSpectrum, k: number): boolean {
+  return leakageAt(measured, k);
 }
 
 function leakageAt(measured: MatchableSpectrum, k: number): boolean {

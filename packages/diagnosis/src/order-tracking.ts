@@ -1,5 +1,4 @@
 import {
-  hilbertEnvelope,
   noiseFloor,
   orderSpectrum,
   resampleToAngle,
@@ -14,8 +13,8 @@ export interface AngleSpectra {
   /** Order spectrum of the channel against the reference shaft ("Hz" of its Spectrum read as orders). */
   orders: OrderSpectrum;
   measured: MatchableSpectrum;
-  /** Order spectrum of the squared envelope in the demodulation band, when one was asked for. */
-  envelope: { orders: OrderSpectrum; measured: MatchableSpectrum } | null;
+  /** The channel resampled to equal steps of the reference shaft's angle (its envelope analysis runs on this, in orders). */
+  resampled: { samples: Float64Array; samplesPerRev: number };
   revolutions: number;
   /** Angle of the reference shaft at every sample (for synchronous averages of other shafts). */
   shaftAngle: ShaftAngle;
@@ -25,7 +24,7 @@ export interface AngleSpectra {
  * Computed order tracking of a vibration channel against the reference shaft, from tach or encoder pulses
  * (@kinespec/signal: cubic-spline shaft angle, band-limited resampling to uniform angle, Welch order spectrum).
  * A line locked to a shaft stays at one order however the speed wanders, so matching works in orders with
- * no speed error at all. The squared envelope of the demodulation band is order-tracked the same way.
+ * no speed error at all.
  */
 // K. R. Fyfe & E. D. S. Munck, "Analysis of computed order tracking", MSSP 11(2):187–205 (1997).
 export function angleSpectra(
@@ -33,12 +32,7 @@ export function angleSpectra(
   sampleRateHz: number,
   unit: string,
   pulses: PulseSpeed,
-  options: {
-    envelopeBandHz: [number, number] | null;
-    /** hilbertEnvelope(samples, { bandHz: envelopeBandHz, sampleRateHz, squared: true }) when the caller has it already. */
-    squaredEnvelope?: Float64Array;
-    slowestOrder: number;
-  },
+  options: { slowestOrder: number },
   lap: (stage: string) => void = () => {},
 ): AngleSpectra | null {
   const angle = shaftAngleFromPulses(pulses, samples.length, sampleRateHz);
@@ -50,20 +44,7 @@ export function angleSpectra(
   lap('angle: order spectrum');
   const measured = matchableSpectrum(orders.spectrum, noiseFloor(orders.spectrum));
   lap('angle: noise floor');
-  let envelope: AngleSpectra['envelope'] = null;
-  if (options.envelopeBandHz) {
-    const squared = options.squaredEnvelope ?? hilbertEnvelope(samples, { bandHz: options.envelopeBandHz, sampleRateHz, squared: true });
-    lap('angle: envelope');
-    // The envelope holds nothing above the band's width: a coarser angle grid is enough.
-    const width = options.envelopeBandHz[1] - options.envelopeBandHz[0];
-    const spr = powerOfTwoAtLeast((2.56 * width) / pulses.minHz);
-    const env = resampleToAngle(squared, sampleRateHz, angle, { samplesPerRev: Math.min(spr, resampled.samplesPerRev), interpolation: 'cubic' });
-    const envOrders = orderSpectrum(env, { scaling: 'peak', segmentRevolutions: segmentRevolutionsFor(env.revolutions, options.slowestOrder) ?? env.revolutions, unit: `${unit}^2` });
-    lap('angle: envelope resampling and order spectrum');
-    envelope = { orders: envOrders, measured: matchableSpectrum(envOrders.spectrum, noiseFloor(envOrders.spectrum)) };
-    lap('angle: envelope noise floor');
-  }
-  return { orders, measured, envelope, revolutions: resampled.revolutions, shaftAngle: angle };
+  return { orders, measured, resampled: { samples: resampled.samples, samplesPerRev: resampled.samplesPerRev }, revolutions: resampled.revolutions, shaftAngle: angle };
 }
 
 function powerOfTwoAtLeast(x: number): number {

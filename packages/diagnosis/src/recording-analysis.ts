@@ -24,6 +24,15 @@ export interface Evidence {
   /** The line also belongs to another component (within the tolerance), so it cannot prove this one. */
   ambiguous?: boolean;
   ambiguousWith?: string[];
+  /**
+   * The prediction scaled to the measurement by the hypothesis' one fitted factor (`Hypothesis.scaleNote`), in the
+   * hypothesis' unit, so that predicted and measured compare; null when no line was found to fit it on.
+   */
+  predictedScaled?: number | null;
+  /** Probability of meeting a peak this strong in the line's window by chance in this spectrum (1 when none was found). */
+  chance?: number;
+  /** The line is one of those counted in `linesPredicted` (false: a running line, another component's line, or not separable from a shaft harmonic). */
+  counted?: boolean;
 }
 
 export interface Hypothesis {
@@ -35,8 +44,26 @@ export interface Hypothesis {
   reason: string;
   domain: HypothesisDomain;
   evidence: Evidence[];
-  /** The parts of the score, for engineers who want to see how it was made. */
-  parts: { detection: number; shape: number; level: number; exclusivity: number; support: number; explainedAway: number; explainedBy?: string };
+  /** The parts of the score, for engineers who want to see how it was made (packages/diagnosis/README.md, "Score"). */
+  parts: {
+    detection: number; shape: number; level: number; exclusivity: number; support: number; explainedAway: number; explainedBy?: string;
+    /** Probability of the pattern by chance in this spectrum, corrected for the bands and slips searched. */
+    chance?: number;
+    /** Product of the fault kind's requirements (1 when all are met), and why one was not. */
+    gate?: number;
+    gateReasons?: string[];
+  };
+  /** Unit of `predicted`, `predictedScaled` and `measured` in the evidence rows (the envelope's is the square of the channel's). */
+  unit?: string;
+  /** Lines that can tell this fault apart that were found, and how many were looked for (the reason's "N of M"). */
+  linesMatched?: number;
+  linesPredicted?: number;
+  /** How the prediction was scaled to the measurement for `predictedScaled`. */
+  scaleNote?: string;
+  /** Envelope hypotheses: the demodulation band the pattern was found in, Hz. */
+  bandHz?: [number, number];
+  /** Other components that are the same physical part or identical to it here (a rotor's shaft, twin bearings on one shaft). */
+  twins?: string[];
 }
 
 export interface PlotSpectrum {
@@ -70,7 +97,7 @@ export interface RecordingAnalysis {
   /** Every trend indicator of this recording by a stable name (see README). */
   indicators: Record<string, number>;
   spectrum: PlotSpectrum;
-  envelopeSpectrum?: { bandHz: [number, number]; unit: string; frequenciesHz: number[]; values: number[]; bandSource?: 'resonance' | 'kurtogram' };
+  envelopeSpectrum?: { bandHz: [number, number]; unit: string; frequenciesHz: number[]; values: number[]; bandSource?: 'resonance' | 'kurtogram' | 'hypothesis'; hypothesis?: string };
   orderSpectrum?: { shaft: string; orders: number[]; values: number[] };
   /** Every candidate of the model, highest score first. */
   hypotheses: Hypothesis[];

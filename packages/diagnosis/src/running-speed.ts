@@ -139,7 +139,11 @@ export function speedFromSpectrum(measured: MatchableSpectrum, model: MachineMod
       if (v[j]! > v[j - 1]! && v[j]! >= v[j + 1]! && (k < 0 || Math.abs(j - x) < Math.abs(k - x))) k = j;
     }
     if (k < 0 || snrDb[k]! < minSnrDb) continue;
-    support.push({ label: l.label, order: l.order, frequencyHz: peakAt(measured, k).frequencyHz, snrDb: snrDb[k]! });
+    // The tone the peak holds must lie within a bin of the comb position: on a coarse spectrum (a 0.1 s snapshot) the
+    // nearest local maximum two bins away can be another line altogether, and would drag the speed far from the range.
+    const frequencyHz = peakAt(measured, k).frequencyHz;
+    if (Math.abs(frequencyHz - l.order * bestHz) > df) continue;
+    support.push({ label: l.label, order: l.order, frequencyHz, snrDb: snrDb[k]! });
   }
   if (support.length === 0) return null;
   let so2 = 0;
@@ -148,7 +152,8 @@ export function speedFromSpectrum(measured: MatchableSpectrum, model: MachineMod
     so2 += p.order * p.order;
     sof += p.order * p.frequencyHz;
   }
-  const speedHz = sof / so2;
+  // The fit never leaves the range searched (a given speed is trusted to a few percent).
+  const speedHz = Math.min(hiHz, Math.max(loHz, sof / so2));
   // Uncertainty from the residuals when there are enough lines; never below a tenth of a bin on the strongest order.
   let residual = 0;
   for (const p of support) residual += (p.frequencyHz - p.order * speedHz) ** 2;

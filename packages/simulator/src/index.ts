@@ -6,3 +6,4 @@ export { SimulatorInputError } from './errors.js';
 export { mulberry32, gaussian } from './prng.js';
 export type { Uniform } from './prng.js';
 export type { SpeedProfile } from './speed-profile.js';
+export { colouredNoise, COLOURED_NOISE_CORNER_HZ, type NoiseColour } from './coloured-noise.js';

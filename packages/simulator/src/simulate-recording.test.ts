@@ -144,6 +144,73 @@ describe('simulateRecording', () => {
     expect((2 * Math.hypot(re, im)) / x.length).toBeCloseTo(0.15, 2);
   });
 
+  it('puts the healthy mesh tones at the levels meshHarmonicsG asks for', () => {
+    const rec = simulateRecording(aerationMixer, { ...base, noise: { accelerationRmsG: 0 }, meshHarmonicsG: [0.05, 0.2, 0, 0.1] });
+    const x = rec.channels[0]!.samples;
+    // Common practice: GMF = N_p·f_p.
+    const gmf1 = 18 * inputHz;
+    expect(lineAmplitude(x, 10_000, gmf1)).toBeCloseTo(0.05, 2);
+    expect(lineAmplitude(x, 10_000, 2 * gmf1)).toBeCloseTo(0.2, 2);
+    expect(lineAmplitude(x, 10_000, 3 * gmf1)).toBeLessThan(0.002);
+    expect(lineAmplitude(x, 10_000, 4 * gmf1)).toBeCloseTo(0.1, 2);
+  });
+
+  it('rings the resonance given in the options instead of the point\'s', () => {
+    const opts = { ...base, durationS: 2, faults: [{ fault: 'bearing-outer-race' as const, component: 'input-de', severity: 1 }], seed: 3 };
+    const own = simulateRecording(aerationMixer, opts).channels[0]!.samples;
+    const moved = simulateRecording(aerationMixer, { ...opts, resonances: [{ frequencyHz: 1500, dampingRatio: 0.03 }] }).channels[0]!.samples;
+    // the point's own mode is 3.4 kHz (fixtures/machines/aeration-mixer-2.json)
+    expect(bandPower(moved, 10_000, 1400, 1600)).toBeGreaterThan(10 * bandPower(own, 10_000, 1400, 1600));
+    expect(bandPower(own, 10_000, 3300, 3500)).toBeGreaterThan(10 * bandPower(moved, 10_000, 3300, 3500));
+  });
+
+  it('drops the tooth impact with toothFault.impactScale 0 and keeps the gate', () => {
+    const opts = { ...base, durationS: 8, seed: 5, noise: { accelerationRmsG: 0 }, healthyLevel: 1, faults: [{ fault: 'gear-missing-tooth' as const, component: 'wheel-2', severity: 1 }] };
+    const withImpact = simulateRecording(aerationMixer, opts).channels[0]!.samples;
+    const gateOnly = simulateRecording(aerationMixer, { ...opts, toothFault: { impactScale: 0, gateWidthPitches: 1.5, gateEdgeFraction: 0.5 } }).channels[0]!.samples;
+    // the impact rings the 3.4 kHz mode; the gate alone leaves that band empty
+    expect(bandPower(withImpact, 10_000, 3300, 3500)).toBeGreaterThan(100 * bandPower(gateOnly, 10_000, 3300, 3500));
+    // McFadden & Smith (1985): the gate still modulates the mesh once per wheel revolution (sideband at GMF2 + f_output)
+    const gmf2 = 79 * outputHz;
+    const healthy = simulateRecording(aerationMixer, { ...opts, faults: [] }).channels[0]!.samples;
+    expect(lineAmplitude(gateOnly, 10_000, gmf2 + outputHz)).toBeGreaterThan(5 * lineAmplitude(healthy, 10_000, gmf2 + outputHz));
+  });
+
+  it('removes the once-per-turn modulation of inner-race impacts with bearingFault.loadZoneDepth 0', () => {
+    const opts = { ...base, durationS: 4, seed: 9, noise: { accelerationRmsG: 0 }, healthyLevel: 0, bearingSlipPercent: 0, faults: [{ fault: 'bearing-inner-race' as const, component: 'input-de', severity: 1 }] };
+    const squared = (x: Float64Array) => x.map((v) => v * v);
+    const full = squared(simulateRecording(aerationMixer, opts).channels[0]!.samples);
+    const none = squared(simulateRecording(aerationMixer, { ...opts, bearingFault: { loadZoneDepth: 0 } }).channels[0]!.samples);
+    // Randall & Antoni (2011): a load zone modulates inner-race impacts at shaft speed, giving BPFI ± f_shaft sidebands.
+    const bpfiHz = 5.4152 * inputHz;
+    const sidebandOverLine = (x: Float64Array) => lineAmplitude(x, 10_000, bpfiHz + inputHz) / lineAmplitude(x, 10_000, bpfiHz);
+    expect(sidebandOverLine(full)).toBeGreaterThan(0.2);
+    expect(sidebandOverLine(none)).toBeLessThan(0.02);
+  });
+
+  it('shapes pink and brown noise to PSD slopes of -10 and -20 dB per decade and keeps the r.m.s. asked for', () => {
+    // Kasdin (1995), Proc. IEEE 83(5): 1/f^α noise has a PSD slope of −10·α dB per decade.
+    const fs = 20_000;
+    // Mean power over one octave a decade apart; points 2 Hz apart (the 2 s record resolves 0.5 Hz) average the noise's scatter.
+    const meanPower = (x: Float64Array, lowHz: number) => {
+      let sum = 0;
+      let count = 0;
+      for (let f = lowHz; f <= 2 * lowHz; f += 2, count++) sum += lineAmplitude(x, fs, f) ** 2;
+      return sum / count;
+    };
+    const slopeDbPerDecade = (x: Float64Array) => 10 * Math.log10(meanPower(x, 1000) / meanPower(x, 100));
+    const noiseOnly = (colour: { white?: number; pink?: number; brown?: number }) =>
+      simulateRecording(aerationMixer, { ...base, sampleRateHz: fs, durationS: 2, healthyLevel: 0, noise: { accelerationRmsG: 0.05, colour, seed: 11 } }).channels[0]!.samples;
+    const rms = (x: Float64Array) => Math.sqrt(x.reduce((s, v) => s + v * v, 0) / x.length);
+    const pink = noiseOnly({ pink: 1 });
+    const brown = noiseOnly({ brown: 1 });
+    const white = noiseOnly({ white: 1 });
+    expect(Math.abs(slopeDbPerDecade(pink) + 10)).toBeLessThan(1.5);
+    expect(Math.abs(slopeDbPerDecade(brown) + 20)).toBeLessThan(1.5);
+    expect(Math.abs(slopeDbPerDecade(white))).toBeLessThan(1.5);
+    for (const x of [pink, brown, white, noiseOnly({ white: 1, pink: 1, brown: 2 })]) expect(rms(x)).toBeCloseTo(0.05, 2);
+  });
+
   it('rejects an unknown point, an unknown component and a severity out of range with typed errors', () => {
     const code = (f: () => unknown) => {
       try {
@@ -158,6 +225,10 @@ describe('simulateRecording', () => {
     expect(code(() => simulateRecording(aerationMixer, { ...base, faults: [{ fault: 'unbalance', component: 'motor', severity: 2 }] }))).toBe('invalid_severity');
     expect(code(() => simulateRecording(aerationMixer, { ...base, durationS: undefined }))).toBe('invalid_length');
     expect(code(() => simulateRecording(aerationMixer, { ...base, includeEncoder: 4096 }))).toBe('pulses_per_rev');
+    expect(code(() => simulateRecording(aerationMixer, { ...base, resonances: [{ frequencyHz: 2000, dampingRatio: 1.5 }] }))).toBe('invalid_resonance');
+    expect(code(() => simulateRecording(aerationMixer, { ...base, toothFault: { gateEdgeFraction: 0.8 } }))).toBe('invalid_shape');
+    expect(code(() => simulateRecording(aerationMixer, { ...base, bearingFault: { loadZoneDepth: -1 } }))).toBe('invalid_shape');
+    expect(code(() => simulateRecording(aerationMixer, { ...base, noise: { colour: { pink: -1 } } }))).toBe('invalid_noise');
   });
 });
 

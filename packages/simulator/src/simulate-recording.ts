@@ -1,6 +1,7 @@
 import { faultKinds, type Bearing, type FaultKind, type Gear, type GearMesh, type MachineModel, type Point } from '@kinespec/kinematics';
 import type { Channel, Recording } from '@kinespec/signal';
 import { bearingOrders } from './bearing-orders.js';
+import { colouredNoise, type NoiseColour } from './coloured-noise.js';
 import { SimulatorInputError } from './errors.js';
 import { gaussian, mulberry32, type Uniform } from './prng.js';
 import { pulseTrain } from './pulse-train.js';
@@ -32,10 +33,31 @@ export interface SimulationOptions {
   speedProfile?: readonly [number, number] | ((tS: number) => number);
   faults?: readonly SimulatedFault[];
   /**
-   * White Gaussian noise added to the main channel: `rms` in the point's unit, or `accelerationRmsG`
+   * Gaussian noise added to the main channel: `rms` in the point's unit, or `accelerationRmsG`
    * for acceleration points (default 0.02 g; 0.01 of the unit for velocity and displacement points).
+   * `colour` splits its power between white, pink (1/f) and brown (1/f²) parts (default all white).
    */
-  noise?: { accelerationRmsG?: number; rms?: number; seed?: number };
+  noise?: { accelerationRmsG?: number; rms?: number; seed?: number; colour?: NoiseColour };
+  /**
+   * Structural resonances the impacts ring, instead of the point's `resonances` (default: the point's, else 3 kHz,
+   * ζ = 0.05). `weight` is each mode's share of an impact (default an equal share).
+   */
+  resonances?: ReadonlyArray<{ frequencyHz: number; dampingRatio: number; weight?: number }>;
+  /** Peak acceleration (g) of the healthy mesh tone at 1, 2, 3, … × the mesh frequency (default [0.15, 0.06, 0.025]); scaled by `healthyLevel`. */
+  meshHarmonicsG?: readonly number[];
+  /**
+   * Shape of a missing or broken tooth: `impactScale` multiplies the impact when the next tooth takes the load
+   * (default 1: 2 g missing, 1.2 g broken at severity 1); `depthScale` multiplies the drop of the mesh force
+   * (default 1: all of it for a missing tooth, half for a broken one, times severity; capped at a full drop);
+   * `gateWidthPitches` is how long the force stays low, in tooth pitches (default 1); `gateEdgeFraction` the share
+   * of that width taken by each raised-cosine edge (default 0.25; 0 a rectangular gate, 0.5 a Hann-shaped dip).
+   */
+  toothFault?: { impactScale?: number; depthScale?: number; gateWidthPitches?: number; gateEdgeFraction?: number };
+  /**
+   * Load zone of inner-race and rolling-element defects: `loadZoneDepth` 1 (default) lets impacts vanish outside
+   * the load zone, 0 gives every impact the same strength (no modulation).
+   */
+  bearingFault?: { loadZoneDepth?: number };
   /** Add a tach channel: once per revolution of the reference shaft unless told otherwise. */
   includeTach?: boolean | { shaft?: string; pulsesPerRev?: number };
   /** Add an encoder channel (50 % square wave) with this many pulses per revolution of the reference shaft, or of `shaft`. */
@@ -70,7 +92,7 @@ const UNIT_FROM_SI: Record<string, { quantity: 'acceleration' | 'velocity' | 'di
 };
 const DEFAULT_UNIT = { acceleration: 'g', velocity: 'mm/s', displacement: 'um' } as const;
 
-/** Default structural resonance when the point names none. */
+/** Default structural resonance when the point and the options name none. */
 const DEFAULT_RESONANCE = { frequencyHz: 3000, dampingRatio: 0.05 };
 
 /**
@@ -212,6 +234,9 @@ interface Context {
   normal: () => number;
   resonances: StructuralResonance[];
   slipFraction: number;
+  meshHarmonicsG: readonly number[];
+  tooth: { impactScale: number; depthScale: number; gateWidthPitches: number; gateEdgeFraction: number };
+  loadZoneDepth: number;
 }
 
 function vibrationChannel(
@@ -231,11 +256,21 @@ function vibrationChannel(
   }
   const nearBearing = point.near ? model.bearings.find((b) => b.id === point.near) : undefined;
   const pointShaft = point.shaft ?? nearBearing?.shaft ?? model.speed.shaft;
-  const listed = point.resonances ?? [DEFAULT_RESONANCE];
+  for (const r of options.resonances ?? []) {
+    if (!(r.frequencyHz > 0 && r.dampingRatio > 0 && r.dampingRatio < 1 && (r.weight === undefined || r.weight >= 0))) {
+      throw new SimulatorInputError(
+        'invalid_resonance',
+        `resonances: each needs frequencyHz > 0, 0 < dampingRatio < 1 and weight >= 0 (got ${JSON.stringify(r)})`,
+      );
+    }
+  }
+  const listed: ReadonlyArray<{ frequencyHz: number; dampingRatio: number; weight?: number }> =
+    options.resonances ?? point.resonances ?? [DEFAULT_RESONANCE];
   // Modes above the band would be removed by the recorder's anti-alias filter; keep those inside it.
   let modes = listed.filter((r) => r.frequencyHz < 0.45 * options.sampleRateHz);
   if (modes.length === 0) modes = [{ frequencyHz: 0.3 * options.sampleRateHz, dampingRatio: DEFAULT_RESONANCE.dampingRatio }];
-  const resonances = modes.map((r) => ({ ...r, weight: 1 / modes.length }));
+  const resonances = modes.map((r) => ({ frequencyHz: r.frequencyHz, dampingRatio: r.dampingRatio, weight: r.weight ?? 1 / modes.length }));
+  checkShapeOptions(options);
 
   const uniform = mulberry32(seed);
   const synth: Synth = {
@@ -257,6 +292,14 @@ function vibrationChannel(
     normal: gaussian(uniform),
     resonances,
     slipFraction: (options.bearingSlipPercent ?? 1.5) / 100,
+    meshHarmonicsG: options.meshHarmonicsG ?? HEALTHY_MESH_G,
+    tooth: {
+      impactScale: options.toothFault?.impactScale ?? 1,
+      depthScale: options.toothFault?.depthScale ?? 1,
+      gateWidthPitches: options.toothFault?.gateWidthPitches ?? 1,
+      gateEdgeFraction: options.toothFault?.gateEdgeFraction ?? 0.25,
+    },
+    loadZoneDepth: options.bearingFault?.loadZoneDepth ?? 1,
   };
   const faults = options.faults ?? [];
   for (const f of faults) checkFault(model, f);
@@ -275,8 +318,28 @@ function vibrationChannel(
   }
   if (!(noiseRms >= 0)) throw new SimulatorInputError('invalid_noise', `noise level (${noiseRms}) must be a number >= 0`);
   const noise = gaussian(mulberry32(options.noise?.seed ?? seed + 7919));
-  for (let i = 0; i < out.length; i++) out[i] += noiseRms * noise();
+  if (options.noise?.colour === undefined) {
+    for (let i = 0; i < out.length; i++) out[i] += noiseRms * noise();
+  } else {
+    const coloured = colouredNoise(out.length, options.sampleRateHz, options.noise.colour, noise);
+    for (let i = 0; i < out.length; i++) out[i] += noiseRms * coloured[i]!;
+  }
   return { name: point.id, unit, samples: out };
+}
+
+function checkShapeOptions(options: SimulationOptions): void {
+  const bad = (name: string, value: unknown, rule: string) => {
+    throw new SimulatorInputError('invalid_shape', `${name} (${String(value)}) must be ${rule}`);
+  };
+  const mesh = options.meshHarmonicsG;
+  if (mesh !== undefined && !(Array.isArray(mesh) && mesh.every((a) => Number.isFinite(a) && a >= 0))) bad('meshHarmonicsG', mesh, 'a list of numbers >= 0');
+  const t = options.toothFault ?? {};
+  if (t.impactScale !== undefined && !(t.impactScale >= 0)) bad('toothFault.impactScale', t.impactScale, 'a number >= 0');
+  if (t.depthScale !== undefined && !(t.depthScale >= 0)) bad('toothFault.depthScale', t.depthScale, 'a number >= 0');
+  if (t.gateWidthPitches !== undefined && !(t.gateWidthPitches > 0 && t.gateWidthPitches <= 5)) bad('toothFault.gateWidthPitches', t.gateWidthPitches, 'a number > 0 and <= 5');
+  if (t.gateEdgeFraction !== undefined && !(t.gateEdgeFraction >= 0 && t.gateEdgeFraction <= 0.5)) bad('toothFault.gateEdgeFraction', t.gateEdgeFraction, 'between 0 and 0.5');
+  const depth = options.bearingFault?.loadZoneDepth;
+  if (depth !== undefined && !(depth >= 0 && depth <= 1)) bad('bearingFault.loadZoneDepth', depth, 'between 0 and 1');
 }
 
 function checkFault(model: MachineModel, f: SimulatedFault): void {
@@ -377,7 +440,8 @@ function addMesh(ctx: Context, mesh: GearMesh, level: number, faults: readonly S
   const gain = Math.max(lineGain(ctx, mesh.driver.shaft), lineGain(ctx, mesh.driven.shaft));
   const wear = faults.find((f) => f.fault === 'gear-wear' && f.component === mesh.id)?.severity ?? 0;
   // Common practice: uniform wear changes the tooth profile, raising 2× and 3× mesh most (Randall 2011, ch. 2; from memory).
-  const meshG = [HEALTHY_MESH_G[0]! * level + 0.03 * wear, HEALTHY_MESH_G[1]! * level + 0.2 * wear, HEALTHY_MESH_G[2]! * level + 0.12 * wear];
+  const wearG = [0.03, 0.2, 0.12];
+  const meshG = Array.from({ length: Math.max(ctx.meshHarmonicsG.length, wearG.length) }, (_, k) => (ctx.meshHarmonicsG[k] ?? 0) * level + (wearG[k] ?? 0) * wear);
   const envelope = new Float64Array(synth.sampleCount).fill(1);
   let modulated = false;
   for (const side of [mesh.driver, mesh.driven]) {
@@ -411,9 +475,10 @@ function addMesh(ctx: Context, mesh: GearMesh, level: number, faults: readonly S
 function addToothFault(ctx: Context, gear: Gear, gearRatio: number, f: SimulatedFault, envelope: Float64Array, gain: number): void {
   const { synth } = ctx;
   const missing = f.fault === 'gear-missing-tooth';
-  const depth = (missing ? 1 : 0.5) * f.severity;
-  const pitch = 1 / gear.teeth;
-  const edge = 0.25 * pitch;
+  const depth = Math.min(1, (missing ? 1 : 0.5) * f.severity * ctx.tooth.depthScale);
+  // A gate never spans more than half a revolution, whatever the width asked for on a gear of few teeth.
+  const pitch = Math.min(0.5, ctx.tooth.gateWidthPitches / gear.teeth);
+  const edge = ctx.tooth.gateEdgeFraction * pitch;
   const start = ctx.uniform(); // where the faulty tooth sits, as a fraction of a revolution
   for (let i = 0; i < envelope.length; i++) {
     const r = gearRatio * synth.refRevolutions[i]! - start;
@@ -426,7 +491,7 @@ function addToothFault(ctx: Context, gear: Gear, gearRatio: number, f: Simulated
     }
     envelope[i] *= 1 - depth * w;
   }
-  const impactG = (missing ? 2 : 1.2) * f.severity * gain;
+  const impactG = (missing ? 2 : 1.2) * f.severity * gain * ctx.tooth.impactScale;
   const firstRev = Math.ceil(gearRatio * synth.refRevolutions[0]! - start - pitch);
   const lastRev = gearRatio * synth.refRevolutions[synth.sampleCount - 1]!;
   const targets: number[] = [];
@@ -523,7 +588,9 @@ function addBearingFault(ctx: Context, bearing: Bearing, f: SimulatedFault): voi
     if (defect.modulationOrder > 0) {
       const psi = 2 * Math.PI * (defect.modulationOrder * position + loadPhase);
       const c = Math.cos(psi);
-      load = c > 0 ? c ** 1.5 : 0;
+      const q = c > 0 ? c ** 1.5 : 0;
+      // A partial load zone (loadZoneDepth < 1): a preloaded or lightly loaded bearing keeps some contact all round.
+      load = ctx.loadZoneDepth === 1 ? q : 1 - ctx.loadZoneDepth + ctx.loadZoneDepth * q;
     }
     amplitudes.push(amplitude * load);
     const jitter = Math.max(-3, Math.min(3, ctx.normal()));

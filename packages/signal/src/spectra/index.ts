@@ -50,3 +50,4 @@ export {
 export { complexFft, realToComplexSpectrum, inverseComplexSpectrum, largestPowerOfTwoAtMost, isPowerOfTwo, type ComplexFft } from './fft.js';
 export { spectraErrorDescriptions, type SpectraErrorCode } from './spectra-error.js';
 export { scratchArray, SCRATCH_LIMIT } from './scratch.js';
+export { BandEnvelopes, bandPaving, type BandEnvelopeOptions, type BandPavingOptions, type DemodulationBand } from './band-envelopes.js';
