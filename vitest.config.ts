@@ -13,6 +13,7 @@ export default defineConfig({
       '@kinespec/signatures': src('./packages/signatures/src/index.ts'),
       '@kinespec/simulator': src('./packages/simulator/src/index.ts'),
       '@kinespec/diagnosis': src('./packages/diagnosis/src/index.ts'),
+      '@kinespec/forecast': src('./packages/forecast/src/index.ts'),
       '@kinespec/api': src('./services/api/src/index.ts'),
     },
   },

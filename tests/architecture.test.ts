@@ -14,7 +14,7 @@ function sources(dir: string): string[] {
 }
 
 describe('package purity', () => {
-  for (const pkg of ['signal', 'kinematics', 'signatures', 'diagnosis']) {
+  for (const pkg of ['signal', 'kinematics', 'signatures', 'diagnosis', 'forecast']) {
     it(`packages/${pkg}/src imports no I/O module`, () => {
       const offenders = sources(join('packages', pkg, 'src')).filter((f) => forbidden.test(readFileSync(f, 'utf8')));
       expect(offenders).toEqual([]);

@@ -29,6 +29,11 @@ export function sine(amplitudeMPerS2: number, n = SAMPLE_COUNT): Float64Array {
   return x;
 }
 
+/** An acceleration sine (m/s^2) at omega = 1000 rad/s whose r.m.s. velocity is `v` mm/s: A = v √2 ω / 1000. */
+export function accelerationWithVelocityRms(v: number): Buffer {
+  return wav(sine((v * Math.SQRT2 * OMEGA_RAD_PER_S) / 1000));
+}
+
 export function wav(samples: Float64Array): Buffer {
   return Buffer.from(encodeWav({ sampleRateHz: SAMPLE_RATE_HZ, channels: [{ name: 'acc', unit: 'm/s^2', samples }], metadata: {} }, { format: 'float32' }));
 }

@@ -331,6 +331,78 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     await page.setViewportSize({ width: 1280, height: 800 });
   });
 
+  it("shows each machine's soonest foreseen crossing in the fleet and sorts by it, soonest first", async () => {
+    const machines = await service.get<Array<{ id: string; soonestCrossing: { level: string; remainingS: number } | null }>>('/api/v1/machines');
+    expect(machines.some((m) => m.soonestCrossing !== null), 'the demo foresees at least one crossing').toBe(true);
+    await page.goto(`${service.url}#/fleet`);
+    await page.locator('#fleet-table tbody tr[data-machine-id]').first().waitFor();
+    for (const m of machines) {
+      const cell = page.locator(`tr[data-machine-id="${m.id}"] [data-crossing]`);
+      expect(await cell.getAttribute('data-crossing')).toBe(m.soonestCrossing?.level ?? '');
+      if (m.soonestCrossing) expect(await cell.textContent()).toMatch(new RegExp(`^${m.soonestCrossing.level} in about \\d+ (minute|hour|day|week|month)s?`));
+      else expect(await cell.textContent()).toBe('none foreseen');
+    }
+    await page.locator('button[data-sort="crossing"]').click();
+    expect(await page.locator('th:has(button[data-sort="crossing"])').getAttribute('aria-sort')).toBe('ascending');
+    const order = await page.locator('#fleet-table tbody tr[data-machine-id]').evaluateAll((trs) =>
+      trs.map((tr) => Number(tr.querySelector('[data-remaining-s]')?.getAttribute('data-remaining-s') ?? Infinity)));
+    expect(order).toEqual([...order].sort((a, b) => a - b));
+    await page.screenshot({ path: join(shots, 'fleet-forecast.png'), fullPage: true });
+    await page.locator('button[data-sort="concern"]').click();
+  });
+
+  it('draws the trend forecast with its band, the onset and the zone boundaries with their values; the speed axis does not start at 0', async () => {
+    const machines = await service.get<Array<{ id: string; soonestCrossing: { pointId: string } | null }>>('/api/v1/machines');
+    const m = machines.find((x) => x.soonestCrossing)!;
+    const pointId = m.soonestCrossing!.pointId;
+    const trend = await service.get<{ zoneBoundaries: { ab: number; bc: number; cd: number }; forecast: { onsetAt: string | null; forecasts: Array<{ level: string; status: string; remainingS: number | null; crossingAt: string | null }> } }>(
+      `/api/v1/trends?machine=${m.id}&point=${pointId}&indicator=velocity_rms_mm_per_s&bucket=week`);
+    const soonest = trend.forecast.forecasts.filter((f) => f.status === 'crossing').sort((a, b) => a.remainingS! - b.remainingS!)[0]!;
+    await page.goto(`${service.url}#/machine/${encodeURIComponent(m.id)}?point=${encodeURIComponent(pointId)}`);
+    const chart = page.locator('figure[data-chart="trend"][data-indicator="velocity_rms_mm_per_s"]');
+    await chart.waitFor({ timeout: 60_000 });
+    expect(await chart.getAttribute('data-forecast-level')).toBe(soonest.level);
+    expect(await chart.getAttribute('data-forecast-crossing-at')).toBe(soonest.crossingAt);
+    expect(await chart.getAttribute('data-onset-at')).toBe(trend.forecast.onsetAt ?? '');
+    const labels = JSON.parse((await chart.getAttribute('data-zone-labels'))!) as string[];
+    expect(labels.map((l) => Number(l.split(' ')[1]))).toEqual([trend.zoneBoundaries.ab, trend.zoneBoundaries.bc, trend.zoneBoundaries.cd]);
+    expect(await inkedPixels(page, 'figure[data-chart="trend"][data-indicator="velocity_rms_mm_per_s"]')).toBeGreaterThan(200);
+    await chart.screenshot({ path: join(shots, 'trend-forecast-chart.png') });
+    // the running speed: its axis spans its own range (the demo speeds vary by under 1 %)
+    const speed = page.locator('figure[data-chart="trend"][data-indicator="speed_rpm"]');
+    if ((await speed.count()) > 0) expect(Number(await speed.getAttribute('data-y-min'))).toBeGreaterThan(0);
+    else expect(await page.locator('figure[data-chart="trend"]').count()).toBeGreaterThan(0);
+  });
+
+  it('lists tach and encoder points without velocity alarm or trip levels', async () => {
+    const machines = await service.get<Array<{ id: string }>>('/api/v1/machines');
+    let checked = 0;
+    for (const m of machines) {
+      const detail = await service.get<{ points: Array<{ id: string; quantity: string }> }>(`/api/v1/machines/${m.id}`);
+      const pulse = detail.points.filter((p) => p.quantity === 'tach' || p.quantity === 'encoder');
+      if (pulse.length === 0) continue;
+      await page.goto(`${service.url}#/machine/${encodeURIComponent(m.id)}`);
+      await page.locator('.point-option').first().waitFor();
+      for (const p of pulse) expect(await page.locator(`.point-option[data-point-id="${p.id}"] .levels`).count(), p.id).toBe(0);
+      const vibration = detail.points.find((p) => p.quantity !== 'tach' && p.quantity !== 'encoder')!;
+      expect(await page.locator(`.point-option[data-point-id="${vibration.id}"] .levels`).textContent()).toMatch(/alarm \d/);
+      checked += pulse.length;
+    }
+    expect(checked, 'the site has tach or encoder points').toBeGreaterThan(0);
+  });
+
+  it('shows in the alarm table the value now beside the value that raised the alarm', async () => {
+    const alarms = await service.get<Array<{ id: string; machineId: string; value: number; currentValue: number | null }>>('/api/v1/alarms?state=active');
+    const a = alarms.find((x) => x.currentValue !== null)!;
+    expect(a, 'the demo raises alarms').toBeDefined();
+    await page.goto(`${service.url}#/machine/${encodeURIComponent(a.machineId)}`);
+    const row = page.locator(`tr[data-alarm-id="${a.id}"]`);
+    await row.waitFor({ timeout: 60_000 });
+    expect(Number(await row.locator('[data-raised-value]').getAttribute('data-raised-value'))).toBe(a.value);
+    expect(Number(await row.locator('[data-current-value]').getAttribute('data-current-value'))).toBe(a.currentValue);
+    expect(await page.locator('#alarm-panel th').allTextContents()).toContain('Value now');
+  });
+
   it('raised no script errors', () => {
     expect(pageErrors).toEqual([]);
   });

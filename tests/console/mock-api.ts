@@ -137,19 +137,26 @@ export async function startMockApi(fixturePath: string, consoleDir: string): Pro
 
   app.get('/api/v1/site', async () => fixture.site);
   app.get('/api/v1/machines', async () =>
-    fixture.machines.map(({ points: _p, model: _m, ...m }) => ({
+    fixture.machines.map(({ points, model: _m, ...m }) => ({
       ...m,
       mainIndicator: {
         indicator: 'velocity_rms_mm_per_s',
         unit: 'mm/s',
         sparkline: weeks(12, end).map((start, i) => ({ start, mean: m.worstZone === 'C' ? 3 + i * 0.4 : m.topHypothesis && m.topHypothesis.score > 0.5 ? 2 + i * i * 0.02 : 1.2 + 0.05 * Math.sin(i) })),
       },
+      // the rising machine in zone C is foreseen to reach zone D in three weeks
+      soonestCrossing: m.worstZone === 'C' ? mockCrossing(points[0]!.id) : null,
     })),
   );
+  function mockCrossing(pointId: string) {
+    const remainingS = 21 * 86_400;
+    return { pointId, indicator: 'velocity_rms_mm_per_s', unit: 'mm/s', level: 'zone D' as const, threshold: 7.1, crossingAt: new Date(end.getTime() + remainingS * 1000).toISOString(), remainingS, lowS: 12 * 86_400, highS: 40 * 86_400 };
+  }
   app.get<{ Params: { id: string } }>('/api/v1/machines/:id', async (request, reply) => {
     const m = machineOf(request.params.id);
     if (!m) return notFound(reply, `no machine '${request.params.id}'`);
-    return { id: m.id, name: m.name, modelVersion: m.modelVersion, model: m.model, points: m.points };
+    // levels belong to vibration points: tach and encoder points have none
+    return { id: m.id, name: m.name, modelVersion: m.modelVersion, model: m.model, points: m.points.map((p) => (p.quantity === 'tach' || p.quantity === 'encoder' ? { ...p, alarmLevel: null, tripLevel: null } : p)) };
   });
   app.get<{ Params: { id: string; point: string } }>('/api/v1/machines/:id/points/:point/recordings', async (request, reply) => {
     const list = recordings.get(`${request.params.id}/${request.params.point}`);
@@ -203,13 +210,16 @@ export async function startMockApi(fixturePath: string, consoleDir: string): Pro
       bucket: request.query.bucket ?? 'week',
       ...(velocity ? { zoneBoundaries: { ab: 2.8, bc: 4.5, cd: 7.1 }, alarmLevel: point?.alarmLevel ?? null, tripLevel: point?.tripLevel ?? null } : {}),
       buckets,
+      forecast: velocity && m?.worstZone === 'C' && point
+        ? { method: 'mock', onsetAt: buckets[2]!.start, level: buckets[11]!.mean, values: 84, forecasts: [{ level: 'zone D', threshold: 7.1, status: 'crossing', reason: 'mock', ...mockCrossing(point.id) }] }
+        : null,
     };
   });
   app.get('/api/v1/fleet/ranking', async () => [
     { machineId: 'raw-water-pump-2', pointId: 'pump-nde-v', indicator: 'velocity_rms_mm_per_s', before: 5.8, after: 7.4, rise: 1.6, risePercent: 27.6 },
     { machineId: 'clarifier-drive', pointId: 'gb-input-h', indicator: 'score:gear-missing-tooth:pinion-1', before: 0.5, after: 0.83, rise: 0.33, risePercent: 66 },
   ]);
-  app.get('/api/v1/alarms', async () => fixture.alarms);
+  app.get('/api/v1/alarms', async () => fixture.alarms.map((a) => ({ ...a, currentValue: Number((a.value * 0.97).toFixed(3)), currentAt: end.toISOString() })));
   app.post<{ Params: { id: string } }>('/api/v1/alarms/:id/acknowledge', async (request, reply) => {
     const alarm = fixture.alarms.find((a) => a.id === request.params.id);
     if (!alarm) return notFound(reply, 'no such alarm');

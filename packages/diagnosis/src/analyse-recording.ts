@@ -1,4 +1,4 @@
-import { speedRangeRpm, shaftRatios, type MachineModel } from '@kinespec/kinematics';
+import { pointUnit, speedRangeRpm, shaftRatios, type MachineModel } from '@kinespec/kinematics';
 import {
   bandRms,
   binPower,
@@ -26,7 +26,8 @@ import { judgeHypotheses, predictionScale, type Judged } from './hypotheses.js';
 import { gradeSeverity, isoBandHz } from './iso-zones.js';
 import { lineToleranceHz, matchableSpectrum, strongPeaks, type MatchableSpectrum } from './line-matching.js';
 import { angleSpectra, type AngleSpectra } from './order-tracking.js';
-import { gearSynchronousAverages, gearTsaIndicators, type GearTsa } from './gear-tsa.js';
+import { gearSynchronousAverages, type GearTsa } from './gear-tsa.js';
+import { indicatorsOf } from './indicators/indicator-registry.js';
 import { reasonFor } from './reason.js';
 import type { Evidence, Hypothesis, RecordingAnalysis, SpeedSource } from './recording-analysis.js';
 import { runningSpeed, type RunningSpeed } from './speed-stage.js';
@@ -193,30 +194,29 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
 
   const maxPlotPoints = options.maxPlotPoints ?? 2048;
   const plot = downsampleForPlot(spectrum, maxPlotPoints);
-  const indicators: Record<string, number> = {
-    velocity_rms_mm_per_s: velocityRmsMmPerS,
-    acceleration_peak: time.peak,
-    acceleration_rms: time.rms,
-    crest_factor: time.crestFactor,
-    kurtosis: time.kurtosis,
-  };
-  if (speedHz !== null) indicators.speed_rpm = speedHz * 60;
-  let envelopeRms: number | undefined;
-  if (plottedEnvelope) {
-    const s = plottedEnvelope.spectrum;
-    envelopeRms = bandRms(s, [s.frequencyResolutionHz, s.frequenciesHz[s.frequenciesHz.length - 1]!]);
-    indicators.envelope_rms = envelopeRms;
-    if (envelope?.defaultBand.kurtosis !== undefined) indicators.kurtogram_kurtosis = envelope.defaultBand.kurtosis;
-  }
-  for (const h of hypotheses) indicators[`score:${h.fault}:${h.component}`] = h.score;
   // With the shaft angle known, every gear's synchronous average and its FM0/FM4/NA4 (trended by the service).
   let gearTsa: GearTsa[] | undefined;
   if (angle && model && model.gearMeshes.length > 0) {
     const ratioOf = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
     gearTsa = gearSynchronousAverages(samples, fs, angle.shaftAngle, model, (shaft) => ratioOf.get(shaft)!);
-    Object.assign(indicators, gearTsaIndicators(gearTsa));
     lap('gear synchronous averages');
   }
+  // Trend indicators: read from the registry (indicators/indicator-registry.ts), in the units it gives at this point.
+  const { values: indicators, units: indicatorUnits } = indicatorsOf(
+    {
+      time,
+      accelerationUnit: acceleration.unit,
+      // a displacement channel is not integrated to velocity here: no overall velocity to trend
+      velocityRmsMmPerS: velocitySpectrum ? velocityRmsMmPerS : null,
+      speedHz,
+      // the trend's band is the same every time: the default band (the point's resonance, else the most impulsive)
+      envelope: envelope ? { spectrum: envelope.band(envelope.defaultBand).spectrum, unit, kurtogramKurtosis: envelope.defaultBand.kurtosis } : null,
+      hypotheses,
+      gearTsa: gearTsa ?? null,
+    },
+    { unit: point ? pointUnit(point) : unit },
+  );
+  const envelopeRms = indicators.envelope_rms;
 
   const analysis: RecordingAnalysis = {
     softwareVersion: SOFTWARE_VERSION,
@@ -238,6 +238,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
       tripLevelMmPerS: severity.tripLevelMmPerS,
     },
     indicators,
+    indicatorUnits,
     spectrum: {
       quantity,
       unit,
@@ -411,7 +412,7 @@ function stageClock(into: Record<string, number> | undefined): (stage: string) =
 }
 
 /** The PSD of a velocity channel's spectrum in (mm/s)²/Hz: one scaling pass, one unit factor. */
-function velocityPsdMmPerS(spectrum: Spectrum, unit: string): Spectrum {
+export function velocityPsdMmPerS(spectrum: Spectrum, unit: string): Spectrum {
   const psd = withScaling(spectrum, 'psd');
   const squaredFactor = convertUnit(1, unit, 'mm/s') ** 2;
   return { ...psd, values: psd.values.map((v) => v * squaredFactor), unit: 'mm/s' };
@@ -422,7 +423,7 @@ function velocityPsdMmPerS(spectrum: Spectrum, unit: string): Spectrum {
  * 0.5 Hz (so that twice line frequency and twice running speed of a two-pole motor, about 1 Hz apart, separate),
  * 4096..65536 samples, at most half the record (at least three averages with 50 % overlap).
  */
-function chooseSegmentLength(length: number, sampleRateHz: number, slowestShaftHz: number | null): number {
+export function chooseSegmentLength(length: number, sampleRateHz: number, slowestShaftHz: number | null): number {
   let largest = 1;
   while (largest * 2 <= length) largest *= 2;
   const cap = largest >= 16384 ? largest / 2 : largest;

@@ -18,6 +18,7 @@ export const diagnosisErrorCodes = [
   'unknown_point', // pointId names no point of the model
   'unknown_channel', // channel or tachChannel outside the recording
   'empty_recording', // no samples to analyse
+  'unknown_indicator', // an indicator name no descriptor of the registry claims
 ] as const;
 
 export type DiagnosisErrorCode = (typeof diagnosisErrorCodes)[number];

@@ -1,5 +1,6 @@
 import { gearIndicators, shaftSynchronousAverage, SignalInputError, type ShaftAngle } from '@kinespec/signal';
 import type { MachineModel } from '@kinespec/kinematics';
+import { indicatorDescriptor } from './indicators/indicator-registry.js';
 
 /** Mesh harmonics kept in each gear's synchronous average (the regular signal of FM0/FM4/NA4). */
 export const TSA_MESH_HARMONICS = 3;
@@ -69,13 +70,7 @@ export function gearSynchronousAverages(
   return out;
 }
 
-/** Trend indicators of the gear averages: `tsa:fm0:<gear>`, `tsa:fm4:<gear>`, `tsa:na4:<gear>` (finite values only). */
+/** Trend indicators of the gear averages: `tsa:fm0:<gear>`, `tsa:fm4:<gear>`, `tsa:na4:<gear>` (finite values only; the registry's family). */
 export function gearTsaIndicators(gears: readonly GearTsa[]): Record<string, number> {
-  const out: Record<string, number> = {};
-  for (const g of gears) {
-    for (const [name, value] of [['fm0', g.fm0], ['fm4', g.fm4], ['na4', g.na4]] as const) {
-      if (value !== null && Number.isFinite(value)) out[`tsa:${name}:${g.gear}`] = value;
-    }
-  }
-  return out;
+  return indicatorDescriptor('tsa:fm0:x').values({ gearTsa: gears }, { unit: null });
 }

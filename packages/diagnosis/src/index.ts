@@ -18,7 +18,7 @@ export {
   type ZoneBoundaries,
 } from './iso-zones.js';
 export { timeIndicators, type TimeIndicators } from './time-indicators.js';
-export { accelerationSignal } from './acceleration-signal.js';
+export { accelerationSignal, DIFFERENTIATION_TOP_HZ } from './acceleration-signal.js';
 export { spectralKurtosis, type SpectralKurtosis, type SpectralKurtosisOptions } from './spectral-kurtosis.js';
 export { fastKurtogram, type Kurtogram, type KurtogramBand, type KurtogramOptions } from './kurtogram.js';
 export { envelopeStage, type EnvelopeStage } from './envelope-stage.js';
@@ -44,3 +44,29 @@ export { bayesFactorBound, chanceModel, chanceOfPeak, correctedForSearch, eviden
 export { claimShared, searchCombs, type BearingComb, type CombEvidence, type BandSource } from './evidence/bearing-comb.js';
 export { weighPattern, type LinePattern, type WeighedLine } from './evidence/line-evidence.js';
 export { gearSynchronousAverages, gearTsaIndicators, TSA_MESH_HARMONICS, type GearTsa } from './gear-tsa.js';
+export {
+  indicatorDescriptors,
+  indicatorDescriptor,
+  findIndicator,
+  indicatorUnit,
+  indicatorQuantity,
+  indicatorsOf,
+  accelerationTrendUnit,
+  envelopeLevel,
+  scoreIndicator,
+  scoreIndicatorName,
+  indicatorLevels,
+  levelPointOf,
+  thresholdOf,
+  type ThresholdChoice,
+  FAULT_SHOWN_SCORE,
+  type IndicatorDescriptor,
+  type IndicatorLevels,
+  type IndicatorLevelRule,
+  type LevelPoint,
+  type IndicatorPoint,
+  type IndicatorQuantity,
+  type IndicatorSources,
+  type IndicatorStage,
+} from './indicators/indicator-registry.js';
+export { computeIndicators, type ComputedIndicators, type IndicatorOptions } from './indicators/compute-indicators.js';

@@ -94,8 +94,10 @@ export interface RecordingAnalysis {
     alarmLevelMmPerS?: number | null;
     tripLevelMmPerS?: number | null;
   };
-  /** Every trend indicator of this recording by a stable name (see README). */
+  /** Every trend indicator of this recording by a stable name (indicators/indicator-registry.ts), in `indicatorUnits`. */
   indicators: Record<string, number>;
+  /** The unit of each indicator at the point (the registry's rule); absent from analyses made before it was added. */
+  indicatorUnits?: Record<string, string>;
   spectrum: PlotSpectrum;
   envelopeSpectrum?: { bandHz: [number, number]; unit: string; frequenciesHz: number[]; values: number[]; bandSource?: 'resonance' | 'kurtogram' | 'hypothesis'; hypothesis?: string };
   orderSpectrum?: { shaft: string; orders: number[]; values: number[] };

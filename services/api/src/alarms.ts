@@ -1,27 +1,30 @@
-import { FAULT_SCORE_ALARM, severityLevels } from './analysis.js';
+import { indicatorLevels, scoreIndicator, type LevelPoint } from '@kinespec/diagnosis';
+import { alarmAction, CLEAR_AFTER, RAISE_AFTER, SCORE_CLEAR_LEVEL, VELOCITY_CLEAR_FRACTION, type RuleLevels } from './alarm-rule.js';
 import type { Queryable } from './database.js';
-import { scoreIndicator } from './indicators.js';
 import {
   clearAlarm,
   escalateAlarm,
   newestRecordedAt,
   openAlarms,
   raiseAlarm,
+  recentTrendValues,
   type PointRow,
 } from './store.js';
 
 /*
- * The alarm rule, kept simple and written down (README "Alarms"):
+ * The alarm rule, written down (README "Alarms"); the levels come from the indicator registry of
+ * @kinespec/diagnosis, the hysteresis and persistence from alarm-rule.ts:
  * - Overall r.m.s. velocity (velocity_rms_mm_per_s): ALARM and TRIP levels are the point's own
  *   (alarmVelocityRmsMmPerS, tripVelocityRmsMmPerS in the machine model); without them ALARM is
  *   baseline + 0.25 x the B/C boundary, at most 1.25 x B/C (ISO 10816-3 §6.3), or the B/C boundary
  *   itself without a baseline, and TRIP is the C/D boundary (zone D begins).
  * - Fault scores (score:<fault>:<component>): ALARM at 0.5, the score at which the recording shows
  *   the fault; no TRIP.
- * - A value at or above a level raises an alarm of that level unless one is open for that point and
- *   indicator; an open ALARM is raised to TRIP (to be acknowledged again); a value below the ALARM
- *   level clears the open alarm. Only the newest recording of a point moves alarms, so uploading old
- *   history never reopens or clears today's state.
+ * - Levels belong to vibration points: tach and encoder points have none.
+ * - ALARM is raised after two recordings in a row at or over its level, TRIP at once; an open alarm clears
+ *   after two recordings in a row under its clear level (10 % under the velocity alarm level; 0.4 for a
+ *   score). Only the newest recording of a point moves alarms, so uploading old history never reopens or
+ *   clears today's state.
  */
 
 export interface IndicatorLevels {
@@ -29,24 +32,33 @@ export interface IndicatorLevels {
   tripLevel: number | null;
 }
 
+/** The level inputs of a stored point (its own ISO class, else the machine's, as the store keeps it). */
+export function levelPointOfRow(point: PointRow): LevelPoint {
+  return {
+    quantity: point.quantity as LevelPoint['quantity'],
+    iso: point.isoGroup && point.isoFoundation ? { group: point.isoGroup, foundation: point.isoFoundation } : null,
+    alarmVelocityRmsMmPerS: point.alarmVelocityRmsMmPerS,
+    tripVelocityRmsMmPerS: point.tripVelocityRmsMmPerS,
+    baselineVelocityRmsMmPerS: point.baselineVelocityRmsMmPerS,
+  };
+}
+
 /**
  * The levels of an indicator at a point. For the overall velocity the analysis's own graded levels when given
- * (`graded`, stored with the analysis: one grading, the package's), else those of the point's model columns
- * (analyses stored before the levels were kept).
+ * (`graded`, stored with the analysis: one grading, the package's), else the registry's levels from the
+ * point's model columns (analyses stored before the levels were kept).
  */
 export function levelsOf(point: PointRow, indicator: string, graded?: IndicatorLevels | null): IndicatorLevels {
-  if (indicator === 'velocity_rms_mm_per_s') {
-    if (graded) return graded;
-    const s = severityLevels(0, {
-      iso: point.isoGroup && point.isoFoundation ? { group: point.isoGroup, foundation: point.isoFoundation } : null,
-      alarmVelocityRmsMmPerS: point.alarmVelocityRmsMmPerS,
-      tripVelocityRmsMmPerS: point.tripVelocityRmsMmPerS,
-      baselineVelocityRmsMmPerS: point.baselineVelocityRmsMmPerS,
-    });
-    return { alarmLevel: s.alarmLevel, tripLevel: s.tripLevel };
-  }
-  if (scoreIndicator(indicator)) return { alarmLevel: FAULT_SCORE_ALARM, tripLevel: null };
-  return { alarmLevel: null, tripLevel: null };
+  if (graded && indicator === 'velocity_rms_mm_per_s') return graded;
+  const levels = indicatorLevels(indicator, levelPointOfRow(point));
+  return { alarmLevel: levels.alarmLevel, tripLevel: levels.tripLevel };
+}
+
+/** The levels with the clear level of the hysteresis (alarm-rule.ts). */
+export function ruleLevelsOf(point: PointRow, indicator: string, graded?: IndicatorLevels | null): RuleLevels {
+  const { alarmLevel, tripLevel } = levelsOf(point, indicator, graded);
+  const clearLevel = alarmLevel === null ? null : scoreIndicator(indicator) ? Math.min(SCORE_CLEAR_LEVEL, alarmLevel) : VELOCITY_CLEAR_FRACTION * alarmLevel;
+  return { alarmLevel, tripLevel, clearLevel };
 }
 
 export type AlarmStateName = 'normal' | 'alarm' | 'trip';
@@ -75,30 +87,30 @@ export async function evaluateAlarms(
   if (newest !== null && newest > r.recordedAt) return;
   const open = await openAlarms(tx, r.point.id);
   const openByIndicator = new Map(open.map((a) => [a.indicator, a]));
-  for (const [indicator, value] of Object.entries(r.indicators)) {
-    if (!Number.isFinite(value)) continue;
-    const levels = levelsOf(r.point, indicator, r.velocityLevels);
-    const state = alarmState(value, levels);
-    if (state === null) continue;
+  const withLevels = Object.entries(r.indicators)
+    .filter(([, value]) => Number.isFinite(value))
+    .map(([indicator]) => ({ indicator, levels: ruleLevelsOf(r.point, indicator, r.velocityLevels) }))
+    .filter((x) => x.levels.alarmLevel !== null || x.levels.tripLevel !== null);
+  // the newest values of each indicator up to this recording (its own included), oldest first
+  const history = await recentTrendValues(tx, { pointId: r.point.id, indicators: withLevels.map((x) => x.indicator), upTo: r.recordedAt, count: Math.max(RAISE_AFTER, CLEAR_AFTER) });
+  for (const { indicator, levels } of withLevels) {
     const current = openByIndicator.get(indicator);
-    if (state === 'normal') {
-      if (current) await clearAlarm(tx, current.id, r.recordedAt, 'rule: value below the alarm level');
-      continue;
-    }
-    const threshold = (state === 'trip' ? levels.tripLevel : levels.alarmLevel)!;
-    if (!current) {
+    const recent = history.get(indicator) ?? [r.indicators[indicator]!];
+    const act = alarmAction(levels, recent, current ? { level: current.level } : null);
+    if (act.action === 'clear' && current) await clearAlarm(tx, current.id, r.recordedAt, act.reason);
+    else if (act.action === 'raise') {
       await raiseAlarm(tx, {
         siteId: r.siteId,
         pointId: r.point.id,
         indicator,
-        level: state,
-        value,
-        threshold,
+        level: act.level,
+        value: act.value,
+        threshold: act.threshold,
         recordingId: r.recordingId,
         raisedAt: r.recordedAt,
       });
-    } else if (state === 'trip' && current.level === 'alarm') {
-      await escalateAlarm(tx, { id: current.id, value, threshold, recordingId: r.recordingId });
+    } else if (act.action === 'escalate' && current) {
+      await escalateAlarm(tx, { id: current.id, value: act.value, threshold: act.threshold, recordingId: r.recordingId });
     }
   }
   // a score alarm whose hypothesis the new analysis no longer reports is cleared as well

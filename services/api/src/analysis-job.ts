@@ -65,7 +65,6 @@ export async function analyseQueuedRecording(services: JobServices, recordingId:
       analysis = await runAnalysis(services.analysis, recording, {
         model,
         pointId: point.pointKey,
-        pointUnit: point.unit,
         ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
       });
     } catch (err) {
@@ -121,7 +120,6 @@ async function reanalyseRecording(services: JobServices, reanalysisId: string, r
     analysis = await runAnalysis(services.analysis, recording, {
       model,
       pointId: point.pointKey,
-      pointUnit: point.unit,
       ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
     });
   } catch (err) {

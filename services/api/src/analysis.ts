@@ -6,8 +6,7 @@ import {
   type RecordingAnalysis,
 } from '@kinespec/diagnosis';
 import type { MachineModel } from '@kinespec/kinematics';
-import { convertUnit, isMotionUnit, quantityOfUnit, type Recording } from '@kinespec/signal';
-import { ACCELERATION_INDICATORS, accelerationTrendUnit } from './indicators.js';
+import type { Recording } from '@kinespec/signal';
 
 /*
  * The one place where the service asks the packages to analyse a recording: ingest, re-analysis and
@@ -30,26 +29,17 @@ export function softwareVersion(): string {
 
 /**
  * Analyses one recording of a machine point. Throws the packages' typed errors for unusable input.
- * Acceleration indicators are converted to the point's trend unit (accelerationTrendUnit), so a series
- * keeps one unit when recordings arrive in g one day and m/s^2 the next.
+ * The indicators come in the units the registry of @kinespec/diagnosis gives at the model's point
+ * (acceleration levels in the point's unit), so a series keeps one unit when recordings arrive in g one
+ * day and m/s^2 the next; they are stored as they are.
  */
 export function analyse(
   recording: Recording,
-  options: { model: MachineModel | null; pointId: string; speedRpm?: number; pointUnit?: string | null },
+  options: { model: MachineModel | null; pointId: string; speedRpm?: number },
 ): RecordingAnalysis {
   const opts: AnalyseOptions = { model: options.model, pointId: options.pointId, maxPlotPoints: MAX_PLOT_POINTS };
   if (options.speedRpm !== undefined) opts.speedRpm = options.speedRpm;
-  const analysis = analyseRecording(recording, opts);
-  const from = analysis.overall.accelerationUnit;
-  const to = accelerationTrendUnit(options.pointUnit ?? null);
-  if (from !== to && isMotionUnit(from) && quantityOfUnit(from) === 'acceleration') {
-    const factor = convertUnit(1, from, to);
-    for (const name of ACCELERATION_INDICATORS) {
-      const v = analysis.indicators[name];
-      if (v !== undefined) analysis.indicators[name] = v * factor;
-    }
-  }
-  return analysis;
+  return analyseRecording(recording, opts);
 }
 
 type IsoClass = { group: 1 | 2; foundation: 'rigid' | 'flexible' };

@@ -113,6 +113,9 @@ export const alarmSchema = z.object({
   acknowledgedBy: z.string().nullable(),
   clearedAt: z.string().nullable(),
   clearedBy: z.string().nullable(),
+  /** The indicator's newest value at the point (beside `value`, the one that raised the alarm). */
+  currentValue: z.number().nullable(),
+  currentAt: z.string().nullable(),
 });
 
 export function iso(d: Date): string;

@@ -248,6 +248,13 @@ export async function listPoints(sql: Queryable, machineId: number, includeRetir
     : sql<PointRow[]>`select ${pointColumns(sql)} from points where machine_id = ${machineId} and retired_at is null order by id`;
 }
 
+/** The current points of every machine of a site. */
+export async function listSitePoints(sql: Queryable, siteId: string): Promise<PointRow[]> {
+  return sql<PointRow[]>`
+    select ${pointColumns(sql)} from points
+    where retired_at is null and machine_id in (select id from machines where site_id = ${siteId}) order by id`;
+}
+
 export async function findPoint(sql: Queryable, machineId: number, pointKey: string): Promise<PointRow | null> {
   const [row] = await sql<PointRow[]>`
     select ${pointColumns(sql)} from points where machine_id = ${machineId} and point_key = ${pointKey}`;
@@ -641,6 +648,61 @@ export async function writeTrendValues(
     group by point_id, indicator`;
 }
 
+/**
+ * The newest `count` values of each of a point's `indicators` recorded at or before `upTo`, oldest first (the alarm
+ * rule's persistence and hysteresis look at them). Indicators with no value are absent from the map.
+ */
+export async function recentTrendValues(
+  tx: Queryable,
+  q: { pointId: number; indicators: string[]; upTo: Date; count: number },
+): Promise<Map<string, number[]>> {
+  const out = new Map<string, number[]>();
+  if (q.indicators.length === 0) return out;
+  const rows = await tx<Array<{ indicator: string; value: number }>>`
+    select indicator, value from (
+      select indicator, value, recorded_at, row_number() over (partition by indicator order by recorded_at desc) as k
+      from trend_values
+      where point_id = ${q.pointId} and indicator = any(${tx.array(q.indicators)}::text[]) and recorded_at <= ${q.upTo}
+    ) t where k <= ${q.count} order by indicator, recorded_at`;
+  for (const r of rows) {
+    const list = out.get(r.indicator) ?? [];
+    list.push(r.value);
+    out.set(r.indicator, list);
+  }
+  return out;
+}
+
+/** Every value of one series in [from, to), oldest first: what a forecast reads. */
+export async function trendSeries(
+  sql: Queryable,
+  q: { pointId: number; indicator: string; from: Date; to: Date },
+): Promise<Array<{ recordedAt: Date; value: number }>> {
+  return sql<Array<{ recordedAt: Date; value: number }>>`
+    select recorded_at as "recordedAt", value from trend_values
+    where point_id = ${q.pointId} and indicator = ${q.indicator} and recorded_at >= ${q.from} and recorded_at < ${q.to}
+    order by recorded_at, recording_id`;
+}
+
+/** One indicator's values at every current point of a site's machines in [from, to), oldest first, by point. */
+export async function siteSeries(
+  sql: Queryable,
+  q: { siteId: string; indicator: string; from: Date; to: Date },
+): Promise<Map<number, Array<{ recordedAt: Date; value: number }>>> {
+  const rows = await sql<Array<{ pointId: number; recordedAt: Date; value: number }>>`
+    select t.point_id as "pointId", t.recorded_at as "recordedAt", t.value
+    from trend_values t join points p on p.id = t.point_id join machines m on m.id = p.machine_id
+    where m.site_id = ${q.siteId} and p.retired_at is null and t.indicator = ${q.indicator}
+      and t.recorded_at >= ${q.from} and t.recorded_at < ${q.to}
+    order by t.point_id, t.recorded_at, t.recording_id`;
+  const out = new Map<number, Array<{ recordedAt: Date; value: number }>>();
+  for (const r of rows) {
+    const list = out.get(r.pointId) ?? [];
+    list.push({ recordedAt: r.recordedAt, value: r.value });
+    out.set(r.pointId, list);
+  }
+  return out;
+}
+
 export type Bucket = 'day' | 'week' | 'month';
 
 export interface BucketRow {
@@ -805,12 +867,18 @@ export interface AlarmRow {
   acknowledgedBy: string | null;
   clearedAt: Date | null;
   clearedBy: string | null;
+  /** The indicator's newest value at the point and when it was recorded (null when none is stored). */
+  currentValue: number | null;
+  currentAt: Date | null;
 }
 
 const alarmColumns = (sql: Queryable) => sql`
   a.id, m.machine_key as "machineId", p.point_key as "pointId", a.indicator, a.level, a.value, a.threshold,
   a.recording_id as "recordingId", a.raised_at as "raisedAt", a.acknowledged_at as "acknowledgedAt",
-  a.acknowledged_by as "acknowledgedBy", a.cleared_at as "clearedAt", a.cleared_by as "clearedBy"`;
+  a.acknowledged_by as "acknowledgedBy", a.cleared_at as "clearedAt", a.cleared_by as "clearedBy",
+  (select tv.value from trend_values tv where tv.point_id = a.point_id and tv.indicator = a.indicator
+    order by tv.recorded_at desc limit 1) as "currentValue",
+  (select max(tv.recorded_at) from trend_values tv where tv.point_id = a.point_id and tv.indicator = a.indicator) as "currentAt"`;
 
 export interface OpenAlarm {
   id: string;

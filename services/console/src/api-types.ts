@@ -28,6 +28,41 @@ export interface MachineSummary {
   lastMeasuredAt: string | null;
   activeAlarms: number;
   mainIndicator: { indicator: string; unit: string; sparkline: SparklineBucket[] } | null;
+  /** The soonest crossing foreseen for the main indicator over the machine's points (absent from older services). */
+  soonestCrossing?: SoonestCrossing | null;
+}
+
+export type ForecastLevel = 'zone B' | 'zone C' | 'zone D' | 'alarm' | 'trip' | 'value';
+
+export interface SoonestCrossing {
+  pointId: string;
+  indicator: string;
+  unit: string;
+  level: ForecastLevel;
+  threshold: number;
+  crossingAt: string;
+  remainingS: number;
+  lowS: number | null;
+  highS: number | null;
+}
+
+export interface LevelForecast {
+  level: ForecastLevel;
+  threshold: number;
+  status: 'crossing' | 'crossed' | 'no-crossing';
+  reason: string;
+  crossingAt: string | null;
+  remainingS: number | null;
+  lowS: number | null;
+  highS: number | null;
+}
+
+export interface TrendForecast {
+  method: string;
+  onsetAt: string | null;
+  level: number;
+  values: number;
+  forecasts: LevelForecast[];
 }
 
 export interface MeasurementPoint {
@@ -150,6 +185,7 @@ export interface Trend {
   alarmLevel?: number | null;
   tripLevel?: number | null;
   buckets: TrendBucket[];
+  forecast?: TrendForecast | null;
 }
 
 export interface RankingRow {
@@ -174,6 +210,9 @@ export interface Alarm {
   acknowledgedAt: string | null;
   acknowledgedBy: string | null;
   clearedAt: string | null;
+  /** The newest value of the indicator at the point (absent from older services). */
+  currentValue?: number | null;
+  currentAt?: string | null;
 }
 
 export interface FaultCandidate {

@@ -1,4 +1,5 @@
 import type { MachineSummary, Zone } from './api-types.js';
+import { soonestSeconds } from './forecast-view.js';
 import { zoneRank } from './zone.js';
 
 // How the fleet table orders and filters machines. Pure: the fleet page and its tests share it.
@@ -30,7 +31,7 @@ export function indicatorRise(m: MachineSummary): number | null {
   return (last - first) / Math.abs(first);
 }
 
-export type SortKey = 'concern' | 'name' | 'zone' | 'score' | 'lastMeasured' | 'alarms' | 'rise';
+export type SortKey = 'concern' | 'name' | 'zone' | 'score' | 'lastMeasured' | 'alarms' | 'rise' | 'crossing';
 export type SortDirection = 'asc' | 'desc';
 
 const score = (m: MachineSummary) => m.topHypothesis?.score ?? -1;
@@ -45,6 +46,8 @@ const keyOf: Record<SortKey, (m: MachineSummary) => number | string> = {
   lastMeasured: time,
   alarms: (m) => m.activeAlarms,
   rise: (m) => indicatorRise(m) ?? -Infinity,
+  // soonest first when ascending; machines with no foreseen crossing last
+  crossing: soonestSeconds,
 };
 
 /**
@@ -58,7 +61,7 @@ export function sortMachines(machines: readonly MachineSummary[], key: SortKey =
   return [...machines].sort((a, b) => {
     const ka = keyOf[key](a);
     const kb = keyOf[key](b);
-    const primary = typeof ka === 'string' ? ka.localeCompare(kb as string) : (ka as number) - (kb as number);
+    const primary = typeof ka === 'string' ? ka.localeCompare(kb as string) : ka === kb ? 0 : (ka as number) - (kb as number);
     return primary !== 0 ? sign * primary : concernTie(a, b);
   });
 }

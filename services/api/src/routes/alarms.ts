@@ -12,6 +12,7 @@ function alarmBody(a: AlarmRow): z.infer<typeof alarmSchema> {
     raisedAt: iso(a.raisedAt),
     acknowledgedAt: iso(a.acknowledgedAt),
     clearedAt: iso(a.clearedAt),
+    currentAt: iso(a.currentAt),
   };
 }
 
@@ -20,7 +21,10 @@ export const alarmRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
     config: { permission: 'read' },
     schema: {
       summary: 'Alarms of the site, newest first: open ones (active) or all',
-      description: 'An alarm is raised when an indicator reaches its alarm or trip level (README, "Alarms"); it clears when a later value falls below the alarm level.',
+      description:
+        'An alarm is raised when an indicator stays at or over its alarm level for two recordings in a row, or reaches its trip level ' +
+        '(README, "Alarms"); it clears after two recordings in a row under its clear level. `value` is the value that raised it (or ' +
+        'escalated it to trip), `currentValue` the newest value of the same indicator at the point.',
       tags: ['alarms'],
       querystring: z.object({
         state: z.enum(['active', 'all']).default('active'),

@@ -1,8 +1,9 @@
 import { parseMachineModel } from '@kinespec/kinematics';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import { levelsOf } from '../alarms.js';
+import { levelPointOfRow, levelsOf } from '../alarms.js';
 import type { Services } from '../app.js';
+import { FORECAST_HISTORY_MS, forecastTrend, levelsToForecast, soonest } from '../forecasts.js';
 import { MAIN_INDICATOR } from '../indicators.js';
 import { parseModelText, storeMachineModel } from '../machine-models.js';
 import { problem } from '../problems.js';
@@ -18,7 +19,10 @@ import {
   listMachineRows,
   listModelVersions,
   listPoints,
+  listSitePoints,
+  siteSeries,
   weeklySparklines,
+  type PointRow,
 } from '../store.js';
 
 const MODEL_TYPES = ['application/json', 'application/yaml', 'application/x-yaml', 'text/yaml', 'text/x-yaml', 'text/plain'];
@@ -49,7 +53,41 @@ const machineSummarySchema = z.object({
     unit: z.string(),
     sparkline: z.array(z.object({ start: z.string(), mean: z.number() })),
   }),
+  soonestCrossing: z.object({
+    pointId: z.string(),
+    indicator: z.string(),
+    unit: z.string(),
+    level: z.enum(['zone B', 'zone C', 'zone D', 'alarm', 'trip', 'value']),
+    threshold: z.number(),
+    crossingAt: z.string(),
+    remainingS: z.number(),
+    lowS: z.number().nullable(),
+    highS: z.number().nullable(),
+  }).nullable().describe("The soonest crossing of a zone boundary, alarm or trip level foreseen for the main indicator at any of the machine's vibration points (GET /trends: forecast)"),
 });
+
+/** The soonest crossing foreseen for the main indicator over a machine's points (the fleet's column), or null. */
+function soonestCrossing(points: readonly PointRow[], series: Map<number, Array<{ recordedAt: Date; value: number }>>) {
+  let best: { point: PointRow; f: NonNullable<ReturnType<typeof soonest>> } | null = null;
+  for (const point of points) {
+    const values = series.get(point.id);
+    if (!values) continue;
+    const f = soonest(forecastTrend(values, levelsToForecast(MAIN_INDICATOR, levelPointOfRow(point), null)));
+    if (f && (best === null || f.remainingS! < best.f.remainingS!)) best = { point, f };
+  }
+  if (!best) return null;
+  return {
+    pointId: best.point.pointKey,
+    indicator: MAIN_INDICATOR,
+    unit: 'mm/s',
+    level: best.f.level,
+    threshold: best.f.threshold,
+    crossingAt: best.f.crossingAt!,
+    remainingS: best.f.remainingS!,
+    lowS: best.f.lowS,
+    highS: best.f.highS,
+  };
+}
 
 function optional<T>(v: T | null): T | undefined {
   return v === null ? undefined : v;
@@ -78,12 +116,16 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
   }, async (request) => {
     const siteId = request.apiKey!.siteId;
     const from = new Date(Date.now() - SPARKLINE_WEEKS * 7 * 86_400_000);
-    const [machines, latest, alarms, sparks] = await Promise.all([
+    const now = new Date();
+    const [machines, latest, alarms, sparks, points, series] = await Promise.all([
       listMachineRows(sql, siteId),
       latestPerPoint(sql, siteId),
       countOpenAlarmsByMachine(sql, siteId),
       weeklySparklines(sql, { siteId, indicator: MAIN_INDICATOR, from }),
+      listSitePoints(sql, siteId),
+      siteSeries(sql, { siteId, indicator: MAIN_INDICATOR, from: new Date(now.getTime() - FORECAST_HISTORY_MS), to: now }),
     ]);
+    const soonestOf = (machineId: number) => soonestCrossing(points.filter((p) => p.machineId === machineId), series);
     return machines.map((m) => {
       const mine = latest.filter((l) => l.machineId === m.id);
       const zones = mine.map((l) => l.zone).filter((z): z is 'A' | 'B' | 'C' | 'D' => z !== null);
@@ -104,6 +146,7 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
           unit: 'mm/s',
           sparkline: sparks.filter((s) => s.machineId === m.id).map((s) => ({ start: iso(s.start), mean: s.mean })),
         },
+        soonestCrossing: soonestOf(m.id),
       };
     });
   });

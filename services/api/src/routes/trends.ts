@@ -1,12 +1,14 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import { alarmState, levelsOf } from '../alarms.js';
+import { indicatorLevels } from '@kinespec/diagnosis';
+import { alarmState, levelPointOfRow, levelsOf } from '../alarms.js';
 import { severityLevels } from '../analysis.js';
 import type { Services } from '../app.js';
+import { FORECAST_HISTORY_MS, forecastTrend, levelsToForecast } from '../forecasts.js';
 import { indicatorUnit, INDICATOR_PATTERN, MAIN_INDICATOR } from '../indicators.js';
 import { problem } from '../problems.js';
 import { idParam, iso, isoTime, parseTime, zoneSchema } from '../schemas.js';
-import { findMachine, findPoint, fleetRanking, latestGradedLevels, listIndicators, listPoints, trendBuckets, type PointRow } from '../store.js';
+import { findMachine, findPoint, fleetRanking, latestGradedLevels, listIndicators, listPoints, trendBuckets, trendSeries, type PointRow } from '../store.js';
 
 const indicatorParam = z.string().regex(INDICATOR_PATTERN, 'must be an indicator name such as velocity_rms_mm_per_s or score:bearing-outer-race:input-de');
 
@@ -32,7 +34,10 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
       description:
         'Each bucket holds the count, min, mean, max and last value of the recordings taken in it (recordedAt in [from, to)). ' +
         "`zone` is the ISO zone of the bucket's largest overall velocity and `alarmState` the alarm state that value reaches " +
-        '(normal, alarm, trip; null where the indicator has no levels).',
+        '(normal, alarm, trip; null where the indicator has no levels). `forecast` says when the lasting level of the series ' +
+        "(every value of the year before `to`) is foreseen to cross each of the point's zone boundaries, its alarm and trip " +
+        'levels and `threshold` when given (packages/forecast/README.md): `status` crossing, crossed or no-crossing, the median ' +
+        '`remainingS` from the last value with `lowS`/`highS` (10 % and 90 %), `crossingAt`, and the `onsetAt` of the current rise.',
       tags: ['trends'],
       querystring: z.object({
         machine: idParam,
@@ -41,6 +46,7 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
         bucket: z.enum(['day', 'week', 'month']).default('week'),
         from: isoTime.optional().describe('Start, inclusive (default: one year before `to`)'),
         to: isoTime.optional().describe('End, exclusive (default: now)'),
+        threshold: z.coerce.number().finite().optional().describe("A level to forecast the crossing of, in the indicator's unit"),
       }),
       response: {
         200: z.object({
@@ -64,6 +70,22 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
             zone: zoneSchema,
             alarmState: z.enum(['normal', 'alarm', 'trip']).nullable(),
           })),
+          forecast: z.object({
+            method: z.string(),
+            onsetAt: z.string().nullable(),
+            level: z.number(),
+            values: z.number(),
+            forecasts: z.array(z.object({
+              level: z.enum(['zone B', 'zone C', 'zone D', 'alarm', 'trip', 'value']),
+              threshold: z.number(),
+              status: z.enum(['crossing', 'crossed', 'no-crossing']),
+              reason: z.string(),
+              crossingAt: z.string().nullable(),
+              remainingS: z.number().nullable(),
+              lowS: z.number().nullable(),
+              highS: z.number().nullable(),
+            })),
+          }).nullable(),
         }),
       },
     },
@@ -80,11 +102,13 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
     const velocity = q.indicator === MAIN_INDICATOR;
     // the overall velocity is graded once, by the analysis: each bucket reads the zone and alarm state stored
     // with the analysis of its largest value, and the levels are those of the newest analysis
-    const [rows, graded] = await Promise.all([
+    const [rows, series, graded] = await Promise.all([
       trendBuckets(sql, { pointId: point.id, indicator: q.indicator, bucket: q.bucket, from, to, graded: velocity }),
+      trendSeries(sql, { pointId: point.id, indicator: q.indicator, from: new Date(to.getTime() - FORECAST_HISTORY_MS), to }),
       velocity ? latestGradedLevels(sql, point.id, to) : Promise.resolve(null),
     ]);
     const levels = levelsOf(point, q.indicator, graded);
+    const levelPoint = levelPointOfRow(point);
     const pointLevels = {
       iso: pointIso(point),
       alarmVelocityRmsMmPerS: point.alarmVelocityRmsMmPerS,
@@ -99,7 +123,7 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
       bucket: q.bucket,
       from: iso(from),
       to: iso(to),
-      zoneBoundaries: velocity ? severityLevels(0, pointLevels).boundaries : null,
+      zoneBoundaries: indicatorLevels(q.indicator, levelPoint).zoneBoundaries,
       alarmLevel: levels.alarmLevel,
       tripLevel: levels.tripLevel,
       buckets: rows.map((b) => ({
@@ -112,6 +136,7 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
         zone: velocity ? b.maxZone ?? null : null,
         alarmState: velocity ? b.maxAlarmState ?? null : alarmState(b.max, levels),
       })),
+      forecast: forecastTrend(series, levelsToForecast(q.indicator, levelPoint, q.threshold ?? null)),
     };
   });
 

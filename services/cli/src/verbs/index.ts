@@ -13,5 +13,6 @@ export const verbLoaders: Record<string, () => Promise<Verb>> = {
   orders: async () => (await import('./orders.js')).ordersVerb,
   serve: async () => (await import('./serve.js')).serveVerb,
   upload: async () => (await import('./upload.js')).uploadVerb,
+  trend: async () => (await import('./trend.js')).trendVerb,
   worker: async () => (await import('./worker.js')).workerVerb,
 };

@@ -4,11 +4,14 @@ import { h } from '../dom.js';
 import { displayUnit, formatDateTime, formatNumber, indicatorName } from '../format.js';
 import { ink, okabeIto } from '../palette.js';
 import { zoneFill } from '../zone.js';
+import { levelRange } from '../forecast-view.js';
 import { axis, numberTicks, trackWidth } from './chart-base.js';
 import { traceMarker } from './marker-shape.js';
+import { drawForecastOverlay, forecastOverlay } from './trend-forecast.js';
 
 // One indicator over time: bucket means with a min–max band, the ISO zone bands behind (letters at
-// the right edge), and the point's alarm (long dashes) and trip (short dashes, heavier) levels.
+// the right edge, boundaries with their values), the point's alarm (long dashes) and trip (short dashes,
+// heavier) levels, and the forecast (trend-forecast.ts): onset, and the soonest crossing with its band.
 
 export interface TrendChart {
   element: HTMLElement;
@@ -43,6 +46,9 @@ export function createTrendChart(host: HTMLElement, trend: Trend, height = 170):
   const name = indicatorName(trend.indicator);
   const lastBucket = buckets[buckets.length - 1];
   const unit = displayUnit(trend.unit);
+  const overlay = forecastOverlay(trend, t.length ? t[t.length - 1]! : null, lastBucket ? lastBucket.last : null);
+  // the running speed is an operating condition, not a level graded from zero: its axis spans its own range
+  const fromZero = trend.indicator !== 'speed_rpm';
 
   const figure = h('figure', {
     class: 'chart trend-chart',
@@ -52,6 +58,12 @@ export function createTrendChart(host: HTMLElement, trend: Trend, height = 170):
     'data-zone-bands': bands.length,
     'data-alarm-level': alarm ?? '',
     'data-trip-level': trip ?? '',
+    'data-zone-labels': JSON.stringify(overlay.boundaries.map((b) => b.label)),
+    'data-onset-at': trend.forecast?.onsetAt ?? '',
+    'data-forecast-level': overlay.crossing?.level ?? '',
+    'data-forecast-crossing-at': overlay.crossing?.crossingAt ?? '',
+    'data-forecast-low-s': overlay.crossing?.lowS ?? '',
+    'data-forecast-high-s': overlay.crossing?.highS ?? '',
   });
   const plotHost = h('div', {
     class: 'plot',
@@ -132,15 +144,23 @@ export function createTrendChart(host: HTMLElement, trend: Trend, height = 170):
   };
 
   let dataMax = 0;
+  let dataMin = Infinity;
   for (const v of max) if (Number.isFinite(v) && v > dataMax) dataMax = v;
-  const top = Math.max(dataMax, alarm ?? 0, trip ?? 0) * 1.12 || 1;
+  for (const v of min) if (Number.isFinite(v) && v < dataMin) dataMin = v;
+  const top = Math.max(dataMax, alarm ?? 0, trip ?? 0, overlay.crossing?.threshold ?? 0) * 1.12 || 1;
+  const yRange: [number, number] = fromZero ? [0, top] : levelRange(dataMin, dataMax);
+  figure.dataset.yMin = String(yRange[0]);
+  const xEnd = overlay.xMax;
 
   const options: uPlot.Options = {
     width: Math.max(200, host.clientWidth || 400),
     height,
     legend: { show: false },
     padding: [8, 10, 0, 0],
-    scales: { x: { time: true }, y: { range: () => [0, top] } },
+    scales: {
+      x: { time: true, range: (_u, lo, hi) => [lo, xEnd !== null && xEnd > hi ? xEnd + 0.03 * (xEnd - lo) : hi] },
+      y: { range: () => yRange },
+    },
     axes: [axis('', { space: 70, size: 30 }), axis('', { values: numberTicks, size: 44 })],
     series: [
       {},
@@ -152,7 +172,7 @@ export function createTrendChart(host: HTMLElement, trend: Trend, height = 170):
     cursor: { drag: { x: false, y: false }, y: false, points: { size: 7 } },
     hooks: {
       drawClear: [drawBands],
-      draw: [drawLevels],
+      draw: [drawLevels, (u) => drawForecastOverlay(u, overlay)],
       setCursor: [
         (u) => {
           const i = u.cursor.idx;

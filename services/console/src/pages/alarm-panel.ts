@@ -50,7 +50,8 @@ export async function renderAlarmPanel(host: HTMLElement, ctx: AppContext, machi
         h('td', {}, h('span', { class: `level level-${a.level}` }, a.level === 'trip' ? '◆ trip' : '▲ alarm')),
         h('td', {}, a.pointId),
         h('td', {}, indicatorName(a.indicator)),
-        h('td', { class: 'num' }, `${formatNumber(a.value)} / ${formatNumber(a.threshold)}`),
+        h('td', { class: 'num', 'data-raised-value': a.value }, `${formatNumber(a.value)} / ${formatNumber(a.threshold)}`),
+        h('td', { class: 'num', 'data-current-value': a.currentValue ?? '', title: a.currentAt ? `recorded ${formatDateTime(a.currentAt)}` : '' }, formatNumber(a.currentValue ?? null)),
         h('td', {}, formatDateTime(a.raisedAt)),
         h('td', {}, state === 'active' ? ack : state === 'acknowledged' ? `ack. ${a.acknowledgedBy ?? ''} ${formatDateTime(a.acknowledgedAt)}` : `cleared ${formatDateTime(a.clearedAt)}`),
       );
@@ -62,7 +63,7 @@ export async function renderAlarmPanel(host: HTMLElement, ctx: AppContext, machi
         h(
         'table',
         { class: 'data compact' },
-        h('thead', {}, h('tr', {}, ...['Level', 'Point', 'Indicator', 'Value / threshold', 'Raised', 'State'].map((t) => h('th', { scope: 'col' }, t)))),
+        h('thead', {}, h('tr', {}, ...['Level', 'Point', 'Indicator', 'Raised at / threshold', 'Value now', 'Raised', 'State'].map((t) => h('th', { scope: 'col' }, t)))),
         h('tbody', {}, ...rows),
         ),
       ),

@@ -3,6 +3,7 @@ import type { AppContext, Cleanup } from '../app-context.js';
 import { sparkline } from '../charts/sparkline.js';
 import { clear, h, message } from '../dom.js';
 import { concernLevel, concernWord, faultScoreThreshold, filterMachines, indicatorRise, sortMachines, type FleetFilter, type SortDirection, type SortKey } from '../fleet-order.js';
+import { crossingCell } from './fleet-crossing.js';
 import { faultName, formatAge, formatDateTime, formatNumber, indicatorName } from '../format.js';
 import { routeHref, type Route } from '../route.js';
 import { scoreBadge, zoneBadge } from '../zone-badge.js';
@@ -19,6 +20,7 @@ const columns: Array<{ key: SortKey | null; label: string; spoken: string; numer
   { key: 'lastMeasured', label: 'Measured', spoken: 'time last measured' },
   { key: 'alarms', label: 'Alarms', spoken: 'active alarms', numeric: true },
   { key: 'rise', label: 'Main indicator, weekly', spoken: 'change of the main indicator' },
+  { key: 'crossing', label: 'Soonest crossing', spoken: 'soonest foreseen crossing' },
 ];
 
 function concernCell(m: MachineSummary): HTMLElement {
@@ -56,7 +58,7 @@ function indicatorCell(m: MachineSummary): HTMLElement {
 export async function renderFleetPage(main: HTMLElement, ctx: AppContext, route: Route): Promise<Cleanup> {
   const machines = await ctx.machines();
   let sortKey: SortKey = (columns.find((c) => c.key === route.params.sort)?.key as SortKey | undefined) ?? 'concern';
-  let direction: SortDirection = route.params.dir === 'asc' ? 'asc' : route.params.dir === 'desc' ? 'desc' : sortKey === 'name' ? 'asc' : 'desc';
+  let direction: SortDirection = route.params.dir === 'asc' ? 'asc' : route.params.dir === 'desc' ? 'desc' : sortKey === 'name' || sortKey === 'crossing' ? 'asc' : 'desc';
   const filter: FleetFilter = {
     text: route.params.q ?? '',
     minZone: (['A', 'B', 'C', 'D'] as const).find((z) => z === route.params.zone) ?? null,
@@ -131,7 +133,8 @@ export async function renderFleetPage(main: HTMLElement, ctx: AppContext, route:
                 if (sortKey === key) direction = direction === 'asc' ? 'desc' : 'asc';
                 else {
                   sortKey = key;
-                  direction = key === 'name' ? 'asc' : 'desc';
+                  // names A to Z and the soonest crossing first; the rest worst first
+                  direction = key === 'name' || key === 'crossing' ? 'asc' : 'desc';
                 }
                 remember();
                 renderHead();
@@ -164,6 +167,7 @@ export async function renderFleetPage(main: HTMLElement, ctx: AppContext, route:
           h('td', { title: formatDateTime(m.lastMeasuredAt) }, formatAge(m.lastMeasuredAt)),
           h('td', { class: 'num' }, m.activeAlarms > 0 ? h('span', { class: 'alarm-count' }, `⚠ ${m.activeAlarms}`) : '0'),
           h('td', {}, indicatorCell(m)),
+          h('td', {}, crossingCell(m)),
         ),
       );
     }
