@@ -2,7 +2,7 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
-// House rule (../shared/design/architecture.md): packages are pure computation, no I/O.
+// House rule (DEVELOPERS.md, "House rules"): packages are pure computation, no I/O.
 const forbidden = /from\s+['"](node:)?(fs|fs\/promises|net|http|https|child_process|dgram|worker_threads)['"]|from\s+['"](fastify|postgres|pino|@electric-sql\/[^'"]+)['"]/;
 
 function sources(dir: string): string[] {

@@ -19,7 +19,18 @@ interface Ids {
   recordingId: string;
   alarmId: string;
   keyId: string;
+  /** Recordings of site A for the corrections, one per request: each is still there when a key tries it. */
+  spare: string[];
 }
+
+/** A recording of site A no request has touched yet (a deletion or move by one role must not hide another's answer). */
+function spareOf(ids: Ids): string {
+  const id = ids.spare.pop();
+  if (!id) throw new Error('the matrix ran out of spare recordings: upload more in beforeAll');
+  return id;
+}
+
+const SPARE_RECORDINGS = 8;
 
 /** The request each route is exercised with, naming site A's resources. */
 const REQUESTS: Record<string, (ids: Ids) => Omit<InjectOptions, 'headers'> & { headers?: Record<string, string> }> = {
@@ -49,10 +60,13 @@ const REQUESTS: Record<string, (ids: Ids) => Omit<InjectOptions, 'headers'> & { 
   'POST /api/v1/sites': () => ({ method: 'POST', url: '/api/v1/sites', payload: { name: 'matrix site' } }),
   'GET /api/v1/faults': () => ({ url: `/api/v1/faults?machine=${MACHINE}` }),
   'GET /api/v1/signatures': () => ({ url: `/api/v1/signatures?machine=${MACHINE}&fault=unbalance&component=input` }),
+  'DELETE /api/v1/recordings/:recordingId': (ids) => ({ method: 'DELETE', url: `/api/v1/recordings/${spareOf(ids)}?reason=matrix` }),
+  'PATCH /api/v1/recordings/:recordingId': (ids) => ({ method: 'PATCH', url: `/api/v1/recordings/${spareOf(ids)}`, payload: { recordedAt: '2021-06-01T00:00:00Z', reason: 'matrix' } }),
+  'GET /api/v1/audit': () => ({ url: '/api/v1/audit' }),
 };
 
 /** Routes whose answer to another site is a list or a result of its own (no id of site A in the path). */
-const SITE_SCOPED_LISTS = new Set(['GET /api/v1/site', 'GET /api/v1/machines', 'GET /api/v1/fleet/ranking', 'GET /api/v1/alarms', 'GET /api/v1/keys', 'POST /api/v1/keys', 'POST /api/v1/models/validate', 'POST /api/v1/sites']);
+const SITE_SCOPED_LISTS = new Set(['GET /api/v1/site', 'GET /api/v1/machines', 'GET /api/v1/fleet/ranking', 'GET /api/v1/alarms', 'GET /api/v1/keys', 'POST /api/v1/keys', 'POST /api/v1/models/validate', 'POST /api/v1/sites', 'GET /api/v1/audit']);
 
 describe('authorization matrix', () => {
   const target = targets[targets.length - 1]!;
@@ -78,7 +92,17 @@ describe('authorization matrix', () => {
     const alarms = (await svc.app.inject({ url: '/api/v1/alarms', headers: auth(a.keys.engineer) })).json() as Array<{ id: string }>;
     const victim = (await svc.app.inject({ method: "POST", url: "/api/v1/keys", headers: auth(a.keys.admin), payload: { role: "logger", label: "matrix target" } })).json();
     const reanalysis = (await svc.app.inject({ method: 'POST', url: `/api/v1/machines/${MACHINE}/reanalyse`, headers: auth(a.keys.admin) })).json();
-    ids = { reanalysisId: reanalysis.reanalysisId, recordingId: loud.json().recordingId, alarmId: alarms[0]!.id, keyId: victim.id };
+    // older recordings for the corrections (never the point's newest, so the alarm above stays as it is)
+    const spare: string[] = [];
+    for (let i = 0; i < SPARE_RECORDINGS * 2; i++) {
+      const res = await svc.app.inject({
+        method: 'POST', url: `/api/v1/machines/${MACHINE}/points/${POINT}/recordings?unit=m/s%5E2&recordedAt=2020-01-${String(i + 1).padStart(2, '0')}T00:00:00Z`,
+        headers: { ...auth(a.keys.logger), 'content-type': 'audio/wav' }, payload: wav(sine(1 + i / 10, 4096)),
+      });
+      expect(res.statusCode).toBe(201);
+      spare.push(res.json().recordingId);
+    }
+    ids = { reanalysisId: reanalysis.reanalysisId, recordingId: loud.json().recordingId, alarmId: alarms[0]!.id, keyId: victim.id, spare };
   });
   afterAll(async () => svc?.close());
 

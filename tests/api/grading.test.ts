@@ -57,6 +57,42 @@ for (const target of targets) {
       expect(body.buckets).toHaveLength(1);
       expect(body.buckets[0]).toMatchObject({ count: 2, zone: 'D', alarmState: 'trip' });
       expect([body.alarmLevel, body.tripLevel]).toEqual([1.5, 1.75]);
+      // the forecast is made against the same levels, and the zone boundaries are the registry's for the model the
+      // analysis graded against (ISO 10816-3 group 2, rigid: 1.4, 2.8, 4.5 mm/s), not the point's columns
+      await svc.db.sql`update points set iso_group = 1, iso_foundation = 'flexible' where point_key = ${POINT}`;
+      const again = (await svc.app.inject({
+        url: `/api/v1/trends?machine=${MACHINE}&point=${POINT}&bucket=week&from=2025-01-06&to=2025-01-13`, headers: auth(site.keys.engineer),
+      })).json();
+      expect(again.zoneBoundaries).toEqual({ ab: 1.4, bc: 2.8, cd: 4.5 });
+      const thresholds = Object.fromEntries((again.forecast.forecasts as Array<{ level: string; threshold: number }>).map((f) => [f.level, f.threshold]));
+      expect(thresholds).toMatchObject({ 'zone B': 1.4, 'zone C': 2.8, 'zone D': 4.5, alarm: 1.5, trip: 1.75 });
+      // the machine's page shows each point's levels as its newest analysis graded them
+      const machine = (await svc.app.inject({ url: `/api/v1/machines/${MACHINE}`, headers: auth(site.keys.engineer) })).json();
+      expect(machine.points.find((p: { id: string }) => p.id === POINT)).toMatchObject({ alarmLevel: 1.5, tripLevel: 1.75 });
+    });
+
+    it('grades a moved recording once, in its new analysis, and a correction re-applies the rule with the stored levels', async () => {
+      // the point columns still disagree with the model (a second grading from them would raise TRIP at once)
+      await svc.db.sql`update points set alarm_velocity_rms_mm_per_s = 0.001, trip_velocity_rms_mm_per_s = 0.002 where point_key = ${POINT}`;
+      const kept = await upload(2.2, '2025-01-08T08:00:00Z');
+      const gone = await upload(2.3, '2025-01-09T08:00:00Z');
+      expect([kept.statusCode, gone.statusCode]).toEqual([201, 201]);
+      const del = await svc.app.inject({ method: 'DELETE', url: `/api/v1/recordings/${gone.json().recordingId}?reason=test`, headers: auth(site.keys.engineer) });
+      expect(del.statusCode, del.body).toBe(200);
+      const move = await svc.app.inject({
+        method: 'PATCH', url: `/api/v1/recordings/${kept.json().recordingId}`, headers: { ...auth(site.keys.engineer), 'content-type': 'application/json' },
+        payload: { recordedAt: '2025-01-10T08:00:00Z', reason: 'logger clock a day slow' },
+      });
+      expect(move.statusCode, move.body).toBe(200);
+      const [row] = await svc.db.sql<{ state: string; alarmState: string; alarmLevel: number; tripLevel: number; n: number }[]>`
+        select r.analysis_state as state, a.alarm_state as "alarmState", a.alarm_level_mm_per_s as "alarmLevel", a.trip_level_mm_per_s as "tripLevel",
+          (select count(*)::int from analyses x where x.recording_id = r.id) as n
+        from recordings r join analyses a on a.recording_id = r.id and a.is_current where r.id = ${kept.json().recordingId}`;
+      const analysis = (await svc.app.inject({ url: `/api/v1/recordings/${kept.json().recordingId}/analysis`, headers: auth(site.keys.engineer) })).json();
+      expect(row).toEqual({ state: 'done', alarmState: 'normal', alarmLevel: analysis.overall.alarmLevelMmPerS, tripLevel: analysis.overall.tripLevelMmPerS, n: 2 });
+      expect(analysis.overall.alarmLevelMmPerS).toBeGreaterThan(0.001);
+      const alarms = (await svc.app.inject({ url: '/api/v1/alarms', headers: auth(site.keys.engineer) })).json() as Array<{ indicator: string }>;
+      expect(alarms.filter((a) => a.indicator === 'velocity_rms_mm_per_s')).toEqual([]);
     });
   });
 }

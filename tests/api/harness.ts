@@ -37,7 +37,10 @@ export const targets: TestTarget[] = [
     ? [{
         name: 'postgresql' as const,
         async open() {
-          const name = `kinespec_test_${Date.now()}_${randomBytes(3).toString('hex')}`;
+          // named after the base database when it is a kinespec_* one (each engineer or CI run keeps to its own names)
+          const base = new URL(serverUrl).pathname.slice(1);
+          const prefix = /^kinespec_[a-z0-9_]+$/.test(base) ? base : 'kinespec_test';
+          const name = `${prefix}_${Date.now()}_${randomBytes(3).toString('hex')}`;
           const admin = postgres(serverUrl, { max: 1, onnotice: () => {} });
           await admin.unsafe(`create database ${name}`);
           const url = new URL(serverUrl);

@@ -35,6 +35,14 @@ for (const target of targets) {
       const re = (await svc.app.inject({ method: 'POST', url: `/api/v1/machines/${MACHINE}/reanalyse`, headers: auth(site.keys.admin) })).json();
       expect(re.failed).toEqual([expect.objectContaining({ recordingId: old, reason: expect.stringMatching(/dropped/) })]);
       expect(re.analysed).toBe(1);
+      // nor can a move, which would need a new analysis where it goes: 409, the recording left where it was
+      const move = await svc.app.inject({
+        method: 'PATCH', url: `/api/v1/recordings/${old}`, headers: { ...auth(site.keys.engineer), 'content-type': 'application/json' },
+        payload: { recordedAt: new Date(Date.now() - 300 * 86_400_000).toISOString(), reason: 'test' },
+      });
+      expect(move.statusCode, move.body).toBe(409);
+      expect(move.json().detail).toMatch(/raw samples were dropped/);
+      expect((await svc.app.inject({ url: `/api/v1/recordings/${old}`, headers: auth(site.keys.engineer) })).json().recordedAt).toBe(meta.recordedAt);
     });
 
     it('keeps everything when the setting is 0', async () => {

@@ -165,3 +165,44 @@ describe('startService', () => {
     await expect(fetch(`${service.url}/health`)).rejects.toThrow();
   });
 });
+
+describe('startService with the demo', () => {
+  it('prints the address and the demo keys at once and seeds the recordings in the background, with its progress on /api/v1/site', async () => {
+    const banner: string[] = [];
+    const config = loadConfig({ KINESPEC_DATA_DIR: 'memory://', KINESPEC_PORT: '0', KINESPEC_DEMO: 'on', KINESPEC_ANALYSIS_THREADS: '0', KINESPEC_RATE_LIMIT_MAX: '0' });
+    const service = await startService(config, { out: (t) => banner.push(t), logger: false });
+    try {
+      const text = banner.join('\n');
+      expect(text).toContain(`Kinespec is listening on ${service.url}`);
+      const engineer = /engineer\s+(ksk_\S+)/.exec(text)?.[1];
+      expect(engineer).toBeDefined();
+      expect(text).toMatch(/being analysed in the background/);
+      const site = await (await fetch(`${service.url}/api/v1/site`, { headers: auth(engineer!) })).json();
+      expect(site.demo).toMatchObject({ state: 'seeding', recordingsTotal: 288 });
+      expect(site.demo.recordingsDone).toBeLessThan(288);
+      const ready = await fetch(`${service.url}/ready`);
+      expect(ready.status).toBe(503);
+      expect((await ready.json()).detail).toMatch(/^the demo site is still being seeded \(\d+ of 288 recordings\)$/);
+    } finally {
+      // close stops the demo between two recordings
+      await service.close();
+    }
+    await service.demoSeeded;
+  }, 120_000);
+});
+
+describe('documentation and favicon', () => {
+  it("serves the API documentation under Kinespec's name and mark, and the favicon every console page links", async () => {
+    const svc = await startTestService(targets[0]!);
+    try {
+      const docs = await svc.app.inject('/docs/');
+      expect(docs.body).toContain('<title>Kinespec API documentation</title>');
+      expect(docs.body).not.toMatch(/<title>[^<]*Swagger/i);
+      const icon = await svc.app.inject('/favicon.svg');
+      expect([icon.statusCode, icon.headers['content-type']]).toEqual([200, 'image/svg+xml']);
+      expect(icon.body).toMatch(/^<svg /);
+    } finally {
+      await svc.close();
+    }
+  });
+});

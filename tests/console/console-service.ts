@@ -59,6 +59,8 @@ export async function startConsoleService(consoleDir: string): Promise<ConsoleSe
     {},
   );
   const service = await startService(config, { logger: false, out: (text) => banner.push(text) });
+  // the banner comes at once; the browser checks want the demo's twelve weeks in
+  await service.demoSeeded;
   // the demo prints its engineer key once; a reused database prints none, and the admin key reads too
   const engineer = /engineer\s+(\S+)/.exec(banner.join('\n'))?.[1];
   return withGet('real', service.url, engineer ?? adminKey, async () => {

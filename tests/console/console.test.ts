@@ -7,7 +7,7 @@ import { build } from 'vite';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startConsoleService, type ConsoleService } from './console-service.js';
 import { inkedPixels, tabStops, unlabelledControls } from './page-checks.js';
-import { pcm16Wav, sines } from './wav-file.js';
+import { floatWav, pcm16Wav, sines } from './wav-file.js';
 
 // The web console in a real browser: Debian's Chromium driven by playwright-core, against the
 // service started in-process. Chart state is read from the charts' data attributes, so the checks
@@ -16,7 +16,7 @@ import { pcm16Wav, sines } from './wav-file.js';
 const chromiumPath = '/usr/bin/chromium';
 const hasChromium = existsSync(chromiumPath);
 const root = fileURLToPath(new URL('../../', import.meta.url));
-const shots = join(root, 'test-output', 'console');
+const shots = join(root, 'test-output', 'screenshots');
 
 interface MachineRow {
   id: string;
@@ -34,6 +34,22 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
   let outDir: string;
   let userDataDir: string;
   const pageErrors: string[] = [];
+  const failedRequests: string[] = [];
+
+  /**
+   * Screenshots of the page as it is now at the two sizes the console is made for, 1280 × 800 (a laptop) and
+   * 800 × 1024 (a tablet), first screen only: what a user sees without scrolling. Then back to 1280 × 800.
+   */
+  async function shoot(name: string): Promise<void> {
+    for (const [width, height] of [[1280, 800], [800, 1024]] as const) {
+      await page.setViewportSize({ width, height });
+      await page.evaluate(() => window.scrollTo(0, 0));
+      await page.waitForTimeout(400);
+      await page.screenshot({ path: join(shots, `${name}-${width}x${height}.png`) });
+    }
+    await page.setViewportSize({ width: 1280, height: 800 });
+    await page.waitForTimeout(200);
+  }
 
   // Seeding the demo site (twelve weeks of recordings through the real pipeline) takes minutes.
   beforeAll(async () => {
@@ -51,6 +67,10 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     });
     page = context.pages()[0] ?? (await context.newPage());
     page.on('pageerror', (err) => pageErrors.push(err.message));
+    // a request that fails is a defect (a missing favicon, a stale bundle), except the key form's deliberate 401
+    page.on('response', (r) => {
+      if (r.status() >= 400 && !(r.status() === 401 && r.url().includes('/api/v1/site'))) failedRequests.push(`${r.status()} ${r.url()}`);
+    });
   }, 900_000);
 
   afterAll(async () => {
@@ -64,7 +84,7 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     const keyInput = page.getByLabel('API key');
     await keyInput.waitFor();
     expect(await unlabelledControls(page)).toEqual([]);
-    await page.screenshot({ path: join(shots, 'key-form.png') });
+    await shoot('key-form');
     await keyInput.fill('not-a-key');
     await page.getByRole('button', { name: 'Open console' }).click();
     await page.getByRole('alert').waitFor();
@@ -86,7 +106,7 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
       await expect.poll(() => page.locator(`tr[data-machine-id="${m.id}"] .fault-flag`).count()).toBe(1);
     }
     expect(await page.locator('#fleet-table .sparkline').count()).toBeGreaterThan(0);
-    await page.screenshot({ path: join(shots, 'fleet.png'), fullPage: true });
+    await shoot('fleet');
   });
 
   it('sorts by a column and filters to fault hypotheses', async () => {
@@ -133,8 +153,7 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     await expect.poll(() => page.locator('figure[data-chart="trend"]').count()).toBeGreaterThan(0);
     expect(await page.getByRole('note', { name: 'Safety note' }).textContent()).toMatch(/qualified engineer.*lock-out/s);
     await page.waitForTimeout(300);
-    await page.screenshot({ path: join(shots, 'machine.png'), fullPage: true });
-    await page.screenshot({ path: join(shots, 'machine-first-screen.png') });
+    await shoot('machine-strongest-fault');
     await chart.screenshot({ path: join(shots, `machine-${kind}-chart.png`) });
   });
 
@@ -165,8 +184,7 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     await expect.poll(() => page.locator('figure[data-chart="spectrum"]').getAttribute('data-hypothesis'), { timeout: 30_000 }).toBe(key);
     expect(Number(await page.locator('figure[data-chart="spectrum"]').getAttribute('data-predicted-count'))).toBeGreaterThan(0);
     await page.waitForTimeout(300);
-    await page.screenshot({ path: join(shots, 'developing-gear-fault.png'), fullPage: true });
-    await page.screenshot({ path: join(shots, 'developing-gear-fault-first-screen.png') });
+    await shoot('machine-developing-gear-fault');
   });
 
   it('zooms with the keyboard and switches to a log amplitude axis', async () => {
@@ -175,7 +193,7 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     await chart.locator('.plot').focus();
     await page.keyboard.press('+');
     await expect.poll(async () => Number(await chart.getAttribute('data-x-max'))).toBeLessThan(before);
-    await page.getByLabel('log').first().check();
+    await page.getByLabel('log', { exact: true }).first().check();
     await expect.poll(() => page.locator('figure[data-chart="spectrum"]').getAttribute('data-log-y')).toBe('true');
     // the zoomed range survives the rebuild
     expect(Number(await page.locator('figure[data-chart="spectrum"]').getAttribute('data-x-max'))).toBeLessThan(before);
@@ -210,7 +228,7 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     if (sig.campbell) expect(Number(await page.locator('figure[data-chart="campbell"]').getAttribute('data-orders'))).toBeGreaterThan(0);
     expect(await unlabelledControls(page)).toEqual([]);
     await page.waitForTimeout(200);
-    await page.screenshot({ path: join(shots, 'signatures.png'), fullPage: true });
+    await shoot('signatures');
   });
 
   it('plots the excitation of a tooth fault with its partial sums, each with its own dash, and re-requests for a new number of harmonics', async () => {
@@ -260,7 +278,8 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     expect(await page.locator('figure[data-chart="excitation"]').count()).toBe(1);
     expect(await unlabelledControls(page)).toEqual([]);
     await page.waitForTimeout(200);
-    await page.screenshot({ path: join(shots, 'signatures-excitation.png'), fullPage: true });
+    await shoot('signatures-excitation');
+    await page.screenshot({ path: join(shots, 'signatures-excitation-full.png'), fullPage: true });
   });
 
   it('uploads a recording through the page and shows its analysis', async () => {
@@ -274,9 +293,9 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
     expect(await item.locator('progress').evaluate((p) => (p as HTMLProgressElement).value)).toBe(100);
     expect(await item.locator('.upload-summary[data-analysis-id]').count()).toBe(1);
     expect(await unlabelledControls(page)).toEqual([]);
-    const stops = await tabStops(page, 20);
+    const stops = await tabStops(page, 30);
     for (const want of ['#up-machine', '#up-point', '#up-files']) expect(stops, `Tab reaches ${want}`).toContain(want);
-    await page.screenshot({ path: join(shots, 'upload.png'), fullPage: true });
+    await shoot('upload');
 
     // the analysis link opens the new recording on the machine page
     const recordingId = await item.getAttribute('data-recording-id');
@@ -326,9 +345,161 @@ describe.skipIf(!hasChromium)('web console in Chromium', () => {
       await page.waitForTimeout(300);
       const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
       expect(overflow, `${name} page scrolls sideways by ${overflow} px`).toBeLessThanOrEqual(1);
-      await page.screenshot({ path: join(shots, `${name}-tablet.png`), fullPage: true });
+      await page.screenshot({ path: join(shots, `${name}-tablet-full-page.png`), fullPage: true });
     }
     await page.setViewportSize({ width: 1280, height: 800 });
+  });
+
+  it('opens a machine on the point whose newest recording is worst, with the proof of its fault above the fold', async () => {
+    const machines = await service.get<MachineRow[]>('/api/v1/machines');
+    const rank = (z: string | null) => (z ? 'ABCD'.indexOf(z) + 1 : 0);
+    for (const m of [...machines].sort((a, b) => (b.topHypothesis?.score ?? 0) - (a.topHypothesis?.score ?? 0)).slice(0, 2)) {
+      const detail = await service.get<{ points: Array<{ id: string; quantity: string }> }>(`/api/v1/machines/${encodeURIComponent(m.id)}`);
+      const latest: Array<{ id: string; zone: string | null }> = [];
+      for (const p of detail.points.filter((q) => q.quantity !== 'tach' && q.quantity !== 'encoder')) {
+        const [r] = await service.get<Array<{ zone: string | null }>>(`/api/v1/machines/${encodeURIComponent(m.id)}/points/${encodeURIComponent(p.id)}/recordings?limit=1`);
+        if (r) latest.push({ id: p.id, zone: r.zone });
+      }
+      const worst = Math.max(...latest.map((p) => rank(p.zone)));
+      await page.goto(`${service.url}#/machine/${encodeURIComponent(m.id)}`);
+      await page.reload();
+      const analysis = page.locator('.analysis[data-analysis-id]');
+      await analysis.waitFor();
+      const chosen = await page.locator('#points input[type=radio]:checked').inputValue();
+      expect(rank(latest.find((p) => p.id === chosen)!.zone), `${m.id}: opened on ${chosen}`).toBe(worst);
+      // the first chart is the one the drawn hypothesis is judged on, and it ends inside the first 800 pixels
+      const first = page.locator('#spectra figure.chart').first();
+      const drawn = await first.getAttribute('data-hypothesis');
+      expect(drawn, `${m.id}: a hypothesis is drawn on the first chart`).toBeTruthy();
+      const box = (await first.boundingBox())!;
+      expect(box.y + box.height, `${m.id}: the proof chart ends at ${Math.round(box.y + box.height)} px`).toBeLessThanOrEqual(800);
+      expect(Number(await first.getAttribute('data-matched-count'))).toBeGreaterThan(0);
+      await shoot(`machine-${m.id}`);
+    }
+  });
+
+  it('puts a unit in every evidence column and shows the counts the reason uses', async () => {
+    const headings = await page.locator('#evidence-table thead th').allTextContents();
+    const numeric = headings.filter((t) => !['Line', 'Family', 'Status'].includes(t));
+    expect(numeric.length).toBe(5);
+    for (const t of numeric) expect(t, 'a numeric column names its unit or scale').toMatch(/\(.+\)/);
+    const recordingId = (await page.locator('.analysis').getAttribute('data-recording-id'))!;
+    const api = await service.get<{ hypotheses: Array<{ fault: string; component: string; evidence: Array<{ matched: boolean }>; linesMatched?: number; linesPredicted?: number }> }>(`/api/v1/recordings/${recordingId}/analysis`);
+    const drawn = (await page.locator('#spectra figure.chart').first().getAttribute('data-hypothesis'))!;
+    const h = api.hypotheses.find((x) => `${x.fault}:${x.component}` === drawn)!;
+    const counts = page.locator('#evidence-counts');
+    expect(Number(await counts.getAttribute('data-matched'))).toBe(h.linesMatched ?? h.evidence.filter((e) => e.matched).length);
+    expect(Number(await counts.getAttribute('data-predicted'))).toBe(h.linesPredicted ?? h.evidence.length);
+    const row = page.locator(`.hyp-table tr[data-hypothesis="${drawn}"] td.num`);
+    expect(await row.textContent()).toBe(`${await counts.getAttribute('data-matched')} of ${await counts.getAttribute('data-predicted')}`);
+  });
+
+  it("labels the demo's densest spectrum without one label over another", async () => {
+    // the spectrum with the most predicted lines among the strongest hypotheses of every machine's landing page
+    const machines = await service.get<MachineRow[]>('/api/v1/machines');
+    let densest: { id: string; lines: number } | null = null;
+    for (const m of machines) {
+      await page.goto(`${service.url}#/machine/${encodeURIComponent(m.id)}`);
+      await page.reload();
+      await page.locator('.analysis[data-analysis-id]').waitFor();
+      const lines = Number(await page.locator('figure[data-chart="spectrum"]').getAttribute('data-predicted-count'));
+      if (!densest || lines > densest.lines) densest = { id: m.id, lines };
+    }
+    await page.goto(`${service.url}#/machine/${encodeURIComponent(densest!.id)}`);
+    await page.reload();
+    const chart = page.locator('figure[data-chart="spectrum"]');
+    await expect.poll(async () => Number(await chart.getAttribute('data-drawn'))).toBeGreaterThan(0);
+    expect(densest!.lines).toBeGreaterThan(20);
+    const boxes = await chart.locator('.line-label').evaluateAll((els) => els.map((e) => e.getBoundingClientRect()).map((r) => ({ left: r.left, right: r.right, top: r.top, bottom: r.bottom })));
+    expect(boxes.length).toBeGreaterThanOrEqual(3);
+    expect(boxes.length).toBeLessThanOrEqual(10);
+    for (let i = 0; i < boxes.length; i++) {
+      for (let j = i + 1; j < boxes.length; j++) {
+        const a = boxes[i]!;
+        const b = boxes[j]!;
+        const overlap = a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
+        expect(overlap, `labels ${i} and ${j} overlap: ${JSON.stringify([a, b])}`).toBe(false);
+      }
+    }
+    const frame = (await chart.boundingBox())!;
+    for (const b of boxes) expect(b.left >= frame.x - 1 && b.right <= frame.x + frame.width + 1, 'labels stay inside the chart').toBe(true);
+    await shoot('machine-densest-spectrum');
+  });
+
+  it("shows each trend with its unit, zone bands and levels", async () => {
+    const trend = page.locator('figure[data-chart="trend"][data-indicator="velocity_rms_mm_per_s"]');
+    await trend.waitFor({ timeout: 30_000 });
+    expect(await trend.locator('.chart-title').textContent()).toMatch(/velocity RMS\s+mm\/s/);
+    expect(Number(await trend.getAttribute('data-buckets'))).toBeGreaterThan(4);
+    expect(Number(await trend.getAttribute('data-zone-bands'))).toBeGreaterThan(0);
+    expect(await trend.getAttribute('data-alarm-level')).not.toBe('');
+    expect(await inkedPixels(page, 'figure[data-chart="trend"][data-indicator="velocity_rms_mm_per_s"]')).toBeGreaterThan(200);
+  });
+
+  it('says on the upload card what it assumed: the unit of a file that states none, and where the speed came from', async () => {
+    await page.goto(`${service.url}#/upload`);
+    await page.reload();
+    await page.locator('#up-point option').first().waitFor({ state: 'attached' });
+    const sampleRateHz = 25600;
+    // a tone of its own each run, so a kept test database (KINESPEC_CONSOLE_TEST_DATA_DIR) never answers with an earlier upload
+    const wav = floatWav(sines([[24.5, 0.5], [441, 0.1], [1000 + (Date.now() % 997), 0.01]], sampleRateHz, 65536), sampleRateHz);
+    await page.locator('#up-recorded-at').fill('2024-01-15T08:30:00');
+    await page.locator('#up-files').setInputFiles({ name: 'no-unit.wav', mimeType: 'audio/wav', buffer: wav });
+    const item = page.locator('.upload-item[data-file="no-unit.wav"]');
+    await expect.poll(() => item.getAttribute('data-state'), { timeout: 60_000 }).toBe('done');
+    const warnings = await item.locator('.upload-warnings li').allTextContents();
+    expect(warnings.some((w) => /'unknown'.*point's unit/.test(w)), warnings.join(' | ')).toBe(true);
+    expect(await item.locator('.upload-speed').textContent()).not.toMatch(/\(given\)/);
+    const recordingId = (await item.getAttribute('data-recording-id'))!;
+    const meta = await service.get<{ recordedAt: string }>(`/api/v1/recordings/${recordingId}`);
+    expect(meta.recordedAt).toBe('2024-01-15T08:30:00.000Z');
+    await shoot('upload-card-warnings');
+  });
+
+  it('moves a recording to another time and deletes it, and the audit log shows both', async () => {
+    const item = page.locator('.upload-item[data-file="no-unit.wav"]');
+    const recordingId = (await item.getAttribute('data-recording-id'))!;
+    await item.getByRole('link', { name: 'open the analysis' }).click();
+    await expect.poll(() => page.locator('.analysis').getAttribute('data-recording-id')).toBe(recordingId);
+    await page.locator('#correction summary').click();
+    await page.locator('#correction select[id^="move-point"] option').first().waitFor({ state: 'attached' });
+    await page.getByLabel('Recorded at (UTC)').fill('2024-01-16T09:00:00');
+    await page.getByLabel('Reason (kept in the log)').fill('logger clock a day behind');
+    await page.locator('#move-recording').click();
+    await expect.poll(() => page.locator('#correction-done').getAttribute('data-action'), { timeout: 30_000 }).toBe('move');
+    const moved = await service.get<{ recordedAt: string }>(`/api/v1/recordings/${recordingId}`);
+    expect(moved.recordedAt).toBe('2024-01-16T09:00:00.000Z');
+    const audit = page.locator(`#audit-panel tr[data-recording-id="${recordingId}"]`);
+    await expect.poll(() => audit.count(), { timeout: 30_000 }).toBe(1);
+    expect(await audit.first().textContent()).toMatch(/moved.*logger clock a day behind/);
+
+    // open it again (the page reloaded its point) and delete it
+    await page.locator('.recording-select').selectOption(recordingId);
+    await expect.poll(() => page.locator('.analysis').getAttribute('data-recording-id')).toBe(recordingId);
+    await page.locator('#correction summary').click();
+    await page.getByLabel('Reason (kept in the log)').fill('test file, not a reading');
+    await page.getByLabel(/I want to delete this recording/).check();
+    await page.locator('#delete-recording').click();
+    await expect.poll(() => page.locator('#correction-done').getAttribute('data-action'), { timeout: 30_000 }).toBe('delete');
+    await expect.poll(() => audit.count(), { timeout: 30_000 }).toBe(2);
+    expect(await page.locator(`#audit-panel tr[data-recording-id="${recordingId}"][data-action="delete"]`).textContent()).toMatch(/deleted.*test file, not a reading/);
+    const gone = await fetch(new URL(`api/v1/recordings/${recordingId}`, service.url), { headers: { authorization: `Bearer ${service.key}` } });
+    expect(gone.status).toBe(404);
+    await page.locator('#audit-panel').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(shots, 'machine-audit-log.png') });
+  });
+
+  it("serves the API documentation under Kinespec's name and mark", async () => {
+    await page.goto(`${service.url}docs`);
+    await page.locator('.swagger-ui .info').waitFor({ timeout: 30_000 });
+    expect(await page.title()).toBe('Kinespec API documentation');
+    expect(await page.locator('link[rel="icon"]').first().getAttribute('href')).toMatch(/favicon\.svg$/);
+    await shoot('api-docs');
+    await page.goto(service.url);
+  });
+
+  it('asked for nothing the service could not give (no missing favicon or asset)', () => {
+    expect(failedRequests).toEqual([]);
   });
 
   it("shows each machine's soonest foreseen crossing in the fleet and sorts by it, soonest first", async () => {

@@ -252,9 +252,12 @@ export async function soak(options: SoakOptions): Promise<SoakReport> {
       duplicates += current!.n;
       const [count] = await sql<{ n: number; trends: number }[]>`
         select (select count(*)::int from recordings) as n, (select count(*)::int from trend_values) as trends`;
-      // a partitioned table (trend_values) holds nothing itself: its size is its partitions'
+      // a partitioned table (trend_values) holds nothing itself: its size is its partitions'; pg_partition_tree lists
+      // no row for a table outside any partition tree, whose size is its own
       const sizes = await sql<{ name: string; bytes: number }[]>`
-        select t as name, (select sum(pg_total_relation_size(p.relid))::float8 from pg_partition_tree(t::regclass) p) as bytes
+        select t as name, coalesce(
+          (select sum(pg_total_relation_size(p.relid)) from pg_partition_tree(t::regclass) p),
+          pg_total_relation_size(t::regclass))::float8 as bytes
         from unnest(array['recordings', 'analyses', 'trend_values', 'trend_daily']) as t`;
       storage = {
         bytesPerRecording: Object.fromEntries(sizes.map((z) => [z.name, Math.round(z.bytes / Math.max(1, count!.n))])),

@@ -151,7 +151,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   // Stage: envelope bands, when the machine has rolling bearings (or no model says otherwise).
   let envelope: EnvelopeStage | null = null;
   const unitHz = angle && speedHz !== null ? speedHz : 1;
-  if (!model || model.bearings.length > 0) {
+  if (!model || model.bearings.length > 0 || model.gearMeshes.length > 0) {
     const resolution = envelopeResolution(model, speedHz) / unitHz;
     envelope = angle
       ? envelopeStage(angle.resampled.samples, angle.resampled.samplesPerRev, model, point, { referenceHz: 1, unitHz }, { resolution, unit, warnings })
@@ -347,7 +347,7 @@ function hypothesesStage(
     minSnrDb: MIN_SNR_DB, isoAbMmPerS: iso.abMmPerS, isoBcMmPerS: iso.bcMmPerS, baseline: options.baseline ?? null, baselineOrders: point.baseline?.orders ?? null, pointUnit: point.unit ?? null,
     catalogue: new LineCatalogue(lineCatalogue.filter((l) => !l.bearing)),
     runningLines: new LineCatalogue(runningLines(model, lineSpeed)),
-    envelope: envelope ? { source: envelope.source, speedUncertaintyFraction: angle ? 0 : speed.uncertaintyHz / speedHz } : null,
+    envelope: envelope ? { source: envelope.source, speedUncertaintyFraction: angle ? 0 : speed.uncertaintyHz / speedHz, band: (b) => envelope!.band(b).measured, topHz: envelope.topHz } : null,
     cepstrum: () => (cepstrum ??= powerCepstrumOf(main.spectrum)),
   });
   lap('scoring');

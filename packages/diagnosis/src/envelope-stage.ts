@@ -11,6 +11,8 @@ export interface EnvelopeStage {
   defaultBand: { lowHz: number; highHz: number; source: 'resonance' | 'kurtogram'; kurtosis?: number };
   /** The analysed band's envelope spectrum and kurtosis (computed once per band). */
   band(band: { lowHz: number; highHz: number }): { spectrum: Spectrum; measured: MatchableSpectrum; kurtosis: number };
+  /** Highest frequency a band may reach (0.45 × the sample rate: clear of the recorder's anti-alias roll-off). */
+  topHz: number;
 }
 
 /** Resonances below this carry the machine's own running lines, not ringing impacts: no demodulation band there. */
@@ -42,6 +44,7 @@ export function envelopeStage(
   const minBandwidth = Math.max(BAND_WIDTH_FACTOR * widest, MIN_BANDWIDTH_HZ / speed.unitHz);
   const topHz = 0.45 * sampleRate;
   if (minBandwidth > 0.5 * topHz || samples.length < 256) {
+    if (model && model.bearings.length === 0) return null;
     options.warnings.push(`the record (${samples.length} samples at ${(sampleRate * speed.unitHz).toFixed(0)} Hz) cannot carry an envelope analysis of this machine's bearings`);
     return null;
   }
@@ -90,7 +93,7 @@ export function envelopeStage(
     }
     defaultBand = best ?? { lowHz: bands[0]!.lowHz, highHz: bands[0]!.highHz, source: 'kurtogram', kurtosis: band(bands[0]!).kurtosis };
   }
-  return { source: { bands, spectrumOf: (b) => band(b).measured }, defaultBand, band };
+  return { source: { bands, spectrumOf: (b) => band(b).measured }, defaultBand, band, topHz };
 }
 
 /** Narrowest band that can hold any band's bearing pattern: 200 Hz (a resonance is not narrower). */

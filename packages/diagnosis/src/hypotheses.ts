@@ -2,12 +2,12 @@ import type { MachineModel, Point } from '@kinespec/kinematics';
 import type { CatalogueLine, LineCatalogue } from './ambiguity.js';
 import type { Candidate } from './candidates.js';
 import { cepstralPeak, type Cepstrum } from './cepstrum.js';
-import { claimShared, searchCombs, type BandSource, type BearingComb, type CombEvidence } from './evidence/bearing-comb.js';
+import { claimShared, searchCombs, type BandSource, type BearingComb, type CombEvidence, type ForeignRate } from './evidence/bearing-comb.js';
 import { evidenceOf } from './evidence/chance.js';
 import { weighPattern } from './evidence/line-evidence.js';
 import { GATE_CLOSED_FACTOR, gates, type GateContext } from './faults/gates.js';
 import { levelOf, type LevelContext } from './level.js';
-import type { MatchableSpectrum } from './line-matching.js';
+import { firstAtOrAbove, type MatchableSpectrum } from './line-matching.js';
 
 /** One predicted line of a judged hypothesis, as the evidence table and the reasons read it. */
 export interface JudgedLine {
@@ -32,6 +32,8 @@ export interface JudgedLine {
   synchronous: boolean;
   /** The line's frequency over its shaft's rate (NaN for lines that are no order of it). */
   harmonic: number;
+  /** For a tooth fault's line near one of its mesh harmonics: the sideband's order (−3 for GMF − 3×), else null. */
+  sidebandOrder: number | null;
 }
 
 export interface ScoreParts {
@@ -89,7 +91,13 @@ export interface JudgeInputs {
   catalogue: LineCatalogue;
   runningLines: LineCatalogue;
   /** Where bearing combs are looked for; null when the record cannot carry an envelope analysis. */
-  envelope: { source: BandSource; speedUncertaintyFraction: number } | null;
+  envelope: {
+    source: BandSource;
+    speedUncertaintyFraction: number;
+    /** The envelope spectrum of any band of the record (for the once-per-turn comb of a tooth fault). */
+    band(band: { lowHz: number; highHz: number }): MatchableSpectrum;
+    topHz: number;
+  } | null;
   cepstrum: () => Cepstrum;
 }
 
@@ -151,7 +159,10 @@ function finish(candidate: Candidate, lines: JudgedLine[], chance: number, rival
     speedHz: inputs.lineSpeedHz, measured: inputs.main, uncertaintyHz: inputs.speedUncertaintyHz, unitHz: inputs.unitHz,
     referenceSpeedHz: inputs.referenceSpeedHz, baselineOrders: inputs.baselineOrders, pointUnit: inputs.pointUnit,
   }));
-  const context: GateContext = { candidate, lines, quantity: inputs.quantity, speed: inputs.speed };
+  const context: GateContext = {
+    candidate, lines, quantity: inputs.quantity, speed: inputs.speed, hasBaseline: inputs.baseline !== null || (inputs.baselineOrders?.length ?? 0) > 0,
+    oncePerTurn: () => oncePerTurnComb(candidate, inputs),
+  };
   let gate = 1;
   const gateReasons: string[] = [];
   // Only what the record's resolution can decide: a shaft's lines (its harmonics, its sidebands) must lie further apart
@@ -174,6 +185,14 @@ function finish(candidate: Candidate, lines: JudgedLine[], chance: number, rival
   const score = clamp01(detection * (0.5 + 0.5 * parts.shape) * level * parts.exclusivity * support * gate);
   const counted = lines.filter((l) => l.counted && !l.synchronous);
   return { candidate, score, parts, lines, linesFound: counted.filter((l) => l.matched).length, linesCounted: counted.length, gateReasons };
+}
+
+/** A shaft order's sideband order around the nearest mesh harmonic of a gear with `teeth` teeth (null when not a gear's line). */
+function sidebandOrderOf(order: number, teeth: number | null): number | null {
+  if (teeth === null || !Number.isFinite(order)) return null;
+  const mesh = Math.round(order / teeth);
+  if (mesh < 1) return null;
+  return Math.round(order - mesh * teeth);
 }
 
 /** SNR (dB) at which a found line counts fully as present; a line at the 6 dB threshold counts a third. */
@@ -199,6 +218,7 @@ function presenceOf(lines: readonly JudgedLine[]): number {
 /** The candidate's predicted lines weighed in the ordinary (or order) spectrum. */
 function spectrumLines(candidate: Candidate, inputs: JudgeInputs): { lines: JudgedLine[]; chance: number } {
   const shaftHz = candidate.shaftRatio * inputs.lineSpeedHz;
+  const teeth = candidate.kind === 'gear' ? inputs.model.gearMeshes.flatMap((m) => [m.driver, m.driven]).find((g) => g.gear === candidate.component)?.teeth ?? null : null;
   const pattern = weighPattern(
     { lines: candidate.lines, own: candidate.own, ownsRunningLines: candidate.descriptor.ownsRunningLines, isTwin: (l) => isTwin(candidate, l) },
     inputs.main,
@@ -209,6 +229,7 @@ function spectrumLines(candidate: Candidate, inputs: JudgeInputs): { lines: Judg
     measuredHz: m.measuredHz, measuredAmplitude: m.measuredAmplitude, snrDb: Number.isFinite(m.snrDb) ? m.snrDb : null, chance: m.chance,
     matched: m.matched, counted: m.counted, ambiguous: m.ambiguous, ambiguousWith: m.ambiguousWith, running: m.running, twin: m.twin,
     synchronous: false, harmonic: candidate.lines[i]!.order === 0 ? Number.NaN : m.predictedHz / shaftHz,
+    sidebandOrder: sidebandOrderOf(m.predictedHz / shaftHz, teeth),
   }));
   return { lines, chance: pattern.chance };
 }
@@ -243,6 +264,36 @@ function toothFaultLattice(judged: readonly Judged[], inputs: JudgeInputs): Arra
   }
   return out;
 }
+
+/**
+ * How many of the first ONCE_PER_TURN_HARMONICS harmonics of a gear's shaft rate stand 6 dB over the floor in the
+ * squared-envelope spectrum of the band holding its mesh harmonics (½ to 3½ × its mesh frequency), or null when the
+ * record offers no such band. A local tooth fault strikes once per turn: the envelope of its mesh is periodic at the
+ * shaft rate and impulsive, so its comb has many harmonics; a runout modulates the mesh smoothly (1×, 2×).
+ */
+function oncePerTurnComb(candidate: Candidate, inputs: JudgeInputs): number | null {
+  if (!inputs.envelope || candidate.kind !== 'gear') return null;
+  const teeth = inputs.model.gearMeshes.flatMap((m) => [m.driver, m.driven]).find((g) => g.gear === candidate.component)?.teeth;
+  if (teeth === undefined) return null;
+  const shaftHz = candidate.shaftRatio * inputs.lineSpeedHz;
+  const meshHz = teeth * shaftHz;
+  const band = { lowHz: 0.5 * meshHz, highHz: Math.min(3.5 * meshHz, inputs.envelope.topHz) };
+  if (band.highHz - band.lowHz < (ONCE_PER_TURN_HARMONICS + 1) * shaftHz) return null;
+  const measured = inputs.envelope.band(band);
+  const { snrDb, maxima, spectrum } = measured;
+  const df = spectrum.frequencyResolutionHz;
+  if (shaftHz < RESOLVABLE_BINS * df) return null;
+  let count = 0;
+  for (let h = 1; h <= ONCE_PER_TURN_HARMONICS; h++) {
+    const c = (h * shaftHz) / df;
+    const i0 = firstAtOrAbove(maxima, Math.ceil(c - 1.5));
+    if (i0 < maxima.length && maxima[i0]! <= c + 1.5 && snrDb[maxima[i0]!]! >= 6) count++;
+  }
+  return count;
+}
+
+/** Harmonics of a gear's shaft rate looked for in its mesh's envelope (see oncePerTurnComb). */
+const ONCE_PER_TURN_HARMONICS = 8;
 
 /** Orders of the mating shaft's rate combined with the faulty gear's shaft harmonics. */
 const LATTICE_ORDERS = 3;
@@ -279,15 +330,43 @@ function combOf(candidate: Candidate, inputs: JudgeInputs): BearingComb {
 
 /**
  * Rates whose harmonics are no bearing's, in the spectra's frequency unit: every shaft's (a once-per-revolution impact
- * or rub fills the envelope with its shaft's comb) and, with a motor, the line frequency's (electromagnetic forces and
- * electrical pick-up put lines at its multiples; in the angle domain they wander and are not excluded).
+ * or rub fills the envelope with its shaft's comb); every gear mesh's lattice n·f₁ + m·f₂ of its two shafts, |m| ≤ 2
+ * (each gear's runout modulates the mesh, so the envelope of a band holding mesh harmonics carries both shaft rates and
+ * their combinations: Randall 2011, ch. 2, from memory); every mesh frequency and blade pass; and, with a motor, the line frequency's (electromagnetic
+ * forces and electrical pick-up put lines at its multiples; in the angle domain they wander and are not excluded).
  */
-function foreignRates(inputs: JudgeInputs): Array<{ rateHz: number; relativeUncertainty: number }> {
+function foreignRates(inputs: JudgeInputs): ForeignRate[] {
   const relative = inputs.speedUncertaintyHz / inputs.lineSpeedHz;
-  const rates = new Map<number, number>();
-  for (const c of inputs.candidates) rates.set(c.shaftRatio * inputs.lineSpeedHz, relative);
-  if (inputs.model.motor && inputs.unitHz === 1) rates.set(inputs.model.motor.lineFrequencyHz, 0);
-  return [...rates].map(([rateHz, relativeUncertainty]) => ({ rateHz, relativeUncertainty }));
+  const out: ForeignRate[] = [];
+  const seen = new Set<number>();
+  for (const c of inputs.candidates) {
+    const rate = c.shaftRatio * inputs.lineSpeedHz;
+    if (!seen.has(rate)) out.push({ rateHz: rate, relativeUncertainty: relative });
+    seen.add(rate);
+  }
+  const ratioOf = new Map(inputs.candidates.map((c) => [c.shaft, c.shaftRatio]));
+  for (const mesh of inputs.model.gearMeshes) {
+    const r1 = ratioOf.get(mesh.driver.shaft);
+    const r2 = ratioOf.get(mesh.driven.shaft);
+    if (r1 === undefined || r2 === undefined || Math.abs(r1 - r2) < 1e-9 * r1) continue;
+    const f1 = r1 * inputs.lineSpeedHz;
+    const f2 = r2 * inputs.lineSpeedHz;
+    const offsets = (f: number) => [-2, -1, 1, 2].map((m) => m * f);
+    out.push({ rateHz: f1, relativeUncertainty: relative, offsetsHz: offsets(f2) });
+    out.push({ rateHz: f2, relativeUncertainty: relative, offsetsHz: offsets(f1) });
+  }
+  // Each mesh's own frequency and blade pass: every tooth or blade passage is an event, so their harmonics
+  // stand in the envelope too (and are high orders of their shafts, beyond the shafts' first harmonics).
+  for (const mesh of inputs.model.gearMeshes) {
+    const r = ratioOf.get(mesh.driver.shaft);
+    if (r !== undefined) out.push({ rateHz: mesh.driver.teeth * r * inputs.lineSpeedHz, relativeUncertainty: relative });
+  }
+  for (const rotor of inputs.model.rotors) {
+    const r = ratioOf.get(rotor.shaft);
+    if (r !== undefined && (rotor.blades ?? 0) > 0) out.push({ rateHz: rotor.blades! * r * inputs.lineSpeedHz, relativeUncertainty: relative });
+  }
+  if (inputs.model.motor && inputs.unitHz === 1) out.push({ rateHz: inputs.model.motor.lineFrequencyHz, relativeUncertainty: 0 });
+  return out;
 }
 
 /** A comb's evidence as judged lines, each beside the predicted line of the signature nearest to it. */
@@ -309,7 +388,7 @@ function combLinesOf(candidate: Candidate, evidence: CombEvidence, inputs: Judge
       measuredHz: l.measuredHz, measuredAmplitude: l.measuredAmplitude, snrDb: l.snrDb, chance: l.chance, matched: l.matched,
       counted: !l.synchronous, ambiguous: l.claimedBy !== undefined || l.synchronous,
       ambiguousWith: l.claimedBy ? [l.claimedBy.replace(':', ' in ')] : l.synchronous ? ['a shaft harmonic (not separable at this resolution)'] : [],
-      running: false, twin: false, synchronous: l.synchronous, harmonic: l.predictedHz / shaftHz,
+      running: false, twin: false, synchronous: l.synchronous, harmonic: l.predictedHz / shaftHz, sidebandOrder: null,
     };
   });
 }

@@ -5,7 +5,7 @@ import { gradeSeverity, isoBandHz, isoZone, isoZoneBoundaries, ISO_10816_3_ZONE_
 
 // ISO 10816-3:2009 Annex A / ISO 20816-3:2022 zone boundaries, mm/s r.m.s. 10–1000 Hz. From memory, corroborated
 // by public secondary sources (IS 14817-3:2004 summary; a distributor note quoting DIN ISO 10816-3 with
-// 4.5 / 7.1 mm/s for a large rigid machine), as listed in ../shared/design/check-values.md §7.
+// 4.5 / 7.1 mm/s for a large rigid machine), as listed in docs/check-values.md §7.
 const standardTable = [
   { group: 1, foundation: 'rigid', ab: 2.3, bc: 4.5, cd: 7.1 },
   { group: 1, foundation: 'flexible', ab: 3.5, bc: 7.1, cd: 11.0 },

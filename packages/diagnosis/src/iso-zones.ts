@@ -19,7 +19,7 @@ export interface ZoneBoundaries {
  * ISO 10816-3:2009 Table A.1/A.2 (kept by ISO 20816-3:2022): broadband r.m.s. velocity on bearing housings,
  * 10–1000 Hz (2–1000 Hz for machines running at 120–600 r/min). Values from memory, corroborated by public
  * secondary sources (IS 14817-3:2004 summary for the groups; a distributor note quoting DIN ISO 10816-3 for
- * 4.5 and 7.1 mm/s in group 1 rigid); see ../shared/design/check-values.md §7.
+ * 4.5 and 7.1 mm/s in group 1 rigid); see docs/check-values.md §7.
  * Group 1: large machines, > 300 kW or shaft height H >= 315 mm. Group 2: medium machines, 15–300 kW, 160 <= H < 315 mm.
  */
 export const ISO_10816_3_ZONE_TABLE: ReadonlyArray<{ group: IsoGroup; foundation: IsoFoundation } & ZoneBoundaries> = [

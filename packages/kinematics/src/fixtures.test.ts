@@ -1,4 +1,4 @@
-import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { componentLines } from './component-lines.js';
 import { parseMachineModel } from './loader.js';
@@ -9,10 +9,10 @@ const read = (name: string) => readFileSync(new URL(name, dir), 'utf8');
 const machineFiles = readdirSync(dir).filter((f) => /\.(json|ya?ml)$/.test(f));
 
 describe('fixtures/machines', () => {
-  // The design page lives beside the repository (../shared/design), not in it; skip where it is absent.
-  const designPage = new URL('../../../../shared/design/machine-model.md', import.meta.url);
-  it.skipIf(!existsSync(designPage))('holds the contract example verbatim from the design page', () => {
-    const block = /```json\n([\s\S]*?)```/.exec(readFileSync(designPage, 'utf8'))?.[1];
+  // The contract document of the project (docs/machine-model.md) shows this file word for word.
+  const contract = new URL('../../../docs/machine-model.md', import.meta.url);
+  it('holds the example of the contract document, docs/machine-model.md', () => {
+    const block = /```json\n([\s\S]*?)```/.exec(readFileSync(contract, 'utf8'))?.[1];
     expect(block).toBeDefined();
     expect(JSON.parse(read('aeration-mixer-2.json'))).toEqual(JSON.parse(block!));
   });

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 
 /*
- * The machine model file: the schema behind ../shared/design/machine-model.md (the contract).
+ * The machine model file: the schema behind docs/machine-model.md (the contract).
  * Lengths in millimetres, speeds in rpm, inertias in kg·m², stiffnesses in N·m/rad.
  * Objects are strict so that a misspelt field ("pitchDiamterMm") is reported instead of ignored.
  * Later work may add optional fields here; it never renames these.

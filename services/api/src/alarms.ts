@@ -3,7 +3,10 @@ import { alarmAction, CLEAR_AFTER, RAISE_AFTER, SCORE_CLEAR_LEVEL, VELOCITY_CLEA
 import type { Queryable } from './database.js';
 import {
   clearAlarm,
+  clearAlarmsRaisedBy,
+  clearPointAlarms,
   escalateAlarm,
+  newestRecordingValues,
   newestRecordedAt,
   openAlarms,
   raiseAlarm,
@@ -17,7 +20,9 @@ import {
  * - Overall r.m.s. velocity (velocity_rms_mm_per_s): ALARM and TRIP levels are the point's own
  *   (alarmVelocityRmsMmPerS, tripVelocityRmsMmPerS in the machine model); without them ALARM is
  *   baseline + 0.25 x the B/C boundary, at most 1.25 x B/C (ISO 10816-3 §6.3), or the B/C boundary
- *   itself without a baseline, and TRIP is the C/D boundary (zone D begins).
+ *   itself without a baseline, and TRIP is the C/D boundary (zone D begins). The analysis grades these once
+ *   and they are stored with it (analysis-row.ts); the rule reads those stored levels, and the registry's only for
+ *   analyses stored before the levels were kept.
  * - Fault scores (score:<fault>:<component>): ALARM at 0.5, the score at which the recording shows
  *   the fault; no TRIP.
  * - Levels belong to vibration points: tach and encoder points have none.
@@ -119,4 +124,31 @@ export async function evaluateAlarms(
       await clearAlarm(tx, a.id, r.recordedAt, 'rule: hypothesis no longer reported');
     }
   }
+}
+
+/**
+ * After a recording left a point (deleted, or moved away or in time), the point's alarms follow what is left: an
+ * alarm that recording raised is withdrawn (its reading is no longer one of this point's, so the off-delay that
+ * guards against a passing reading does not apply), then the rule runs on the point's newest remaining recording as
+ * after an upload, and may raise again what the remaining readings still show. A point with no recording left has
+ * no open alarm.
+ */
+export async function reevaluatePointAlarms(
+  tx: Queryable,
+  r: { siteId: string; point: PointRow; at: Date; why: string; leftRecordingId?: string },
+): Promise<void> {
+  if (r.leftRecordingId) await clearAlarmsRaisedBy(tx, r.point.id, r.leftRecordingId, r.at, `correction: ${r.why}`);
+  const newest = await newestRecordingValues(tx, r.point.id);
+  if (!newest) {
+    await clearPointAlarms(tx, r.point.id, r.at, `rule: no recording left on the point (${r.why})`);
+    return;
+  }
+  await evaluateAlarms(tx, {
+    siteId: r.siteId,
+    point: r.point,
+    recordingId: newest.recordingId,
+    recordedAt: newest.recordedAt,
+    indicators: newest.indicators,
+    velocityLevels: newest.velocityLevels,
+  });
 }

@@ -1,6 +1,7 @@
 import type { Recording } from '@kinespec/signal';
 import type { AnalysisPool } from './analysis-pool.js';
-import type { RecordingAnalysis } from './analysis.js';
+import type { MachineModel } from '@kinespec/kinematics';
+import type { analyse, RecordingAnalysis } from './analysis.js';
 import { analysisRow, velocityLevels } from './analysis-row.js';
 import { evaluateAlarms } from './alarms.js';
 import type { AnalysisJobData, JobContext } from './analysis-queue.js';
@@ -24,6 +25,8 @@ import {
   recordingForAnalysis,
   setAnalysisState,
   writeTrendValues,
+  type PointRow,
+  type RecordingRow,
 } from './store.js';
 
 /*
@@ -62,11 +65,7 @@ export async function analyseQueuedRecording(services: JobServices, recordingId:
     const t0 = performance.now();
     let analysis: RecordingAnalysis;
     try {
-      analysis = await runAnalysis(services.analysis, recording, {
-        model,
-        pointId: point.pointKey,
-        ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
-      });
+      analysis = await runAnalysis(services.analysis, recording, analysisOptions(row, point, model));
     } catch (err) {
       if (err instanceof ProblemError && err.problem.slug === 'analysis-failed') {
         await setAnalysisState(sql, recordingId, 'failed', { slug: 'analysis-failed', detail: err.detail, ...(typeof err.extras['code'] === 'string' ? { code: err.extras['code'] } : {}) });
@@ -117,11 +116,7 @@ async function reanalyseRecording(services: JobServices, reanalysisId: string, r
   if (!point || !recording) return;
   let analysis: RecordingAnalysis;
   try {
-    analysis = await runAnalysis(services.analysis, recording, {
-      model,
-      pointId: point.pointKey,
-      ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
-    });
+    analysis = await runAnalysis(services.analysis, recording, analysisOptions(row, point, model));
   } catch (err) {
     if (err instanceof ProblemError && err.problem.slug === 'analysis-failed') {
       await fail(err.detail);
@@ -141,7 +136,26 @@ async function reanalyseRecording(services: JobServices, reanalysisId: string, r
   });
 }
 
-async function storedRecording(sql: Sql, recordingId: string, row: { sampleRateHz: number; metadata: Record<string, string>; channels: Array<{ name: string; unit: string }> }): Promise<Recording | null> {
+/**
+ * How a stored recording is analysed at a point: against `model`, with the speed given at upload and the channel
+ * the upload named (1-based in the store, 0-based for the analysis). The first analysis, a re-analysis and a
+ * correction's move all ask alike.
+ */
+export function analysisOptions(
+  row: Pick<RecordingRow, 'speedRpm' | 'analysisChannel'>,
+  point: Pick<PointRow, 'pointKey'>,
+  model: MachineModel | null,
+): Parameters<typeof analyse>[1] {
+  return {
+    model,
+    pointId: point.pointKey,
+    ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
+    ...(row.analysisChannel !== null ? { channel: row.analysisChannel - 1 } : {}),
+  };
+}
+
+/** A stored recording with its samples (float32, as stored), or null when they are gone. */
+export async function storedRecording(sql: Sql, recordingId: string, row: { sampleRateHz: number; metadata: Record<string, string>; channels: Array<{ name: string; unit: string }> }): Promise<Recording | null> {
   const bytes = await getRecordingSamples(sql, recordingId);
   if (!bytes) return null;
   const channels = unpackSamples(bytes, row.channels.length);

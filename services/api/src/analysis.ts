@@ -35,10 +35,12 @@ export function softwareVersion(): string {
  */
 export function analyse(
   recording: Recording,
-  options: { model: MachineModel | null; pointId: string; speedRpm?: number },
+  options: { model: MachineModel | null; pointId: string; speedRpm?: number; channel?: number },
 ): RecordingAnalysis {
   const opts: AnalyseOptions = { model: options.model, pointId: options.pointId, maxPlotPoints: MAX_PLOT_POINTS };
   if (options.speedRpm !== undefined) opts.speedRpm = options.speedRpm;
+  // 0-based here, as @kinespec/diagnosis takes it; the API and the store number channels from 1
+  if (options.channel !== undefined) opts.channel = options.channel;
   return analyseRecording(recording, opts);
 }
 

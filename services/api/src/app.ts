@@ -12,14 +12,17 @@ import { runAnalysisJob } from './analysis-job.js';
 import { AnalysisQueue } from './analysis-queue.js';
 import { createMetrics, type ServiceMetrics } from './metrics.js';
 import { SampleBudget } from './sample-budget.js';
+import { BRAND_LOGO_SVG, BRAND_MARK_SVG, BRAND_NAME } from './brand.js';
 import { ApiKeyCache, authenticate, authorise, bearerToken, type Permission } from './auth.js';
 import type { ServiceConfig } from './config.js';
 import type { Sql } from './database.js';
+import type { DemoStatus } from './demo-seed.js';
 import { clientErrorHandler, frameworkErrors, registerProblemHandlers, sendProblem } from './http-errors.js';
 import { ModelCache } from './model-cache.js';
 import { openApiTransform } from './openapi.js';
 import { problem, problemTypes, problemUri } from './problems.js';
 import { alarmRoutes } from './routes/alarms.js';
+import { correctionRoutes } from './routes/corrections.js';
 import { healthRoutes, type Readiness } from './routes/health.js';
 import { keyRoutes } from './routes/keys.js';
 import { machineRoutes } from './routes/machines.js';
@@ -59,6 +62,8 @@ export interface Services {
   /** The analysis queue (pg-boss) and this process's workers on it. */
   queue: AnalysisQueue;
   config: AppConfig;
+  /** The demo's progress while its recordings go in, null when there is no demo being seeded by this process. */
+  demoStatus: () => DemoStatus | null;
 }
 
 export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'> &
@@ -72,6 +77,7 @@ export interface BuildAppOptions {
   /** A pino logger, or false for none (tests). */
   logger?: FastifyBaseLogger | false;
   readiness?: Readiness;
+  demoStatus?: () => DemoStatus | null;
 }
 
 /** Builds the HTTP application (not listening). */
@@ -119,6 +125,7 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     metrics: createMetrics({ sql: options.sql, analysis, budget, queue, dbPoolMax: options.config.dbPoolMax ?? 10 }),
     queue,
     config: options.config,
+    demoStatus: options.demoStatus ?? (() => null),
   };
   const workers = options.config.queueWorkers ?? Math.max(1, options.config.analysisThreads ?? 1);
   if (workers > 0) queue.startWorkers(workers, (job, context) => runAnalysisJob(services, job, context));
@@ -152,7 +159,19 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     },
     transform: openApiTransform,
   });
-  await app.register(fastifySwaggerUi, { routePrefix: '/docs' });
+  // the documentation under Kinespec's own name and mark, not the framework's
+  await app.register(fastifySwaggerUi, {
+    routePrefix: '/docs',
+    logo: { type: 'image/svg+xml', content: Buffer.from(BRAND_LOGO_SVG), href: '/docs', target: '_self' },
+    theme: {
+      title: `${BRAND_NAME} API documentation`,
+      favicon: [{ filename: 'favicon.svg', rel: 'icon', sizes: 'any', type: 'image/svg+xml', content: Buffer.from(BRAND_MARK_SVG) }],
+      css: [{ filename: 'kinespec.css', content: '.swagger-ui .topbar { background-color: #1c2530; }' }],
+    },
+  });
+  app.get('/favicon.svg', { schema: { hide: true } }, async (_request, reply) =>
+    reply.type('image/svg+xml').header('cache-control', 'public, max-age=86400').send(BRAND_MARK_SVG),
+  );
 
   // Load shedding: while the event loop lags (every core busy, a flood of requests) new requests answer 503
   // with Retry-After at once rather than queueing behind the lag; /health keeps answering.
@@ -254,6 +273,7 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
       await api.register(alarmRoutes, { services });
       await api.register(keyRoutes, { services });
       await api.register(signatureRoutes, { services });
+      await api.register(correctionRoutes, { services });
     },
     { prefix: '/api/v1' },
   );

@@ -18,7 +18,7 @@ export const roles = ['logger', 'engineer', 'admin'] as const satisfies readonly
 /** Every role a key can hold: the site roles, and 'platform' (creates sites, sees none; only with KINESPEC_PLATFORM_KEY). */
 export const allRoles = [...roles, 'platform'] as const satisfies readonly Role[];
 
-export type Permission = 'upload' | 'read' | 'acknowledge' | 'manage' | 'site' | 'platform';
+export type Permission = 'upload' | 'read' | 'acknowledge' | 'correct' | 'manage' | 'site' | 'platform';
 
 /** What each permission allows, by role: the one table routes, tests and the README read. */
 export const allowed: Record<Permission, readonly Role[]> = {
@@ -26,6 +26,7 @@ export const allowed: Record<Permission, readonly Role[]> = {
   upload: ['logger', 'engineer', 'admin'],
   read: ['engineer', 'admin'],
   acknowledge: ['engineer', 'admin'],
+  correct: ['engineer', 'admin'],
   manage: ['admin'],
   platform: ['platform'],
 };
@@ -122,6 +123,7 @@ function describe(permission: Permission): string {
     case 'upload': return 'upload recordings';
     case 'read': return 'read machines, recordings, trends or alarms';
     case 'acknowledge': return 'acknowledge alarms';
+    case 'correct': return 'delete or move recordings';
     case 'manage': return 'manage machines, models or keys';
     case 'site': return 'read the site';
     case 'platform': return 'create sites';

@@ -17,6 +17,14 @@ import type { Sql } from './database.js';
 
 export const DEMO_SITE_NAME = 'Skelmere board mill (demo)';
 
+/** How far the demo's recordings are (the console shows it while they are pushed in the background). */
+export interface DemoStatus {
+  state: 'seeding' | 'done' | 'failed';
+  recordingsDone: number;
+  recordingsTotal: number;
+  error?: string;
+}
+
 export interface DemoKeys {
   engineer: string;
   logger: string;
@@ -70,16 +78,38 @@ async function inject(app: FastifyInstance, request: InjectOptions): Promise<unk
   return response.json();
 }
 
+export interface DemoOptions {
+  adminKey: string;
+  now?: Date;
+  parallel?: number;
+  /** Only these machines (model ids); default all (tests seed a part). */
+  machines?: string[];
+  /** Only these slots (0 = the oldest, 2 x 12 - 1 = the newest); default all. */
+  slots?: number[];
+}
+
+/** The demo once its keys and machine models are in: the recordings still to push, and how to push them. */
+export interface PreparedDemo {
+  engineer: string;
+  logger: string;
+  /** recordings the run will push */
+  total: number;
+  /**
+   * Pushes the recordings, oldest first per point, calling `onRecording` after each; stops early (between
+   * recordings) once `stop` says so. Resolves with the number pushed.
+   */
+  run(onRecording?: (done: number) => void, stop?: () => boolean): Promise<number>;
+}
+
 /** Seeds the demo site through the HTTP API; returns the demo keys (shown once). */
-export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string, options: {
-    adminKey: string;
-    now?: Date;
-    parallel?: number;
-    /** Only these machines (model ids); default all (tests seed a part). */
-    machines?: string[];
-    /** Only these slots (0 = the oldest, 2 x 12 - 1 = the newest); default all. */
-    slots?: number[];
-  }): Promise<DemoKeys> {
+export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string, options: DemoOptions): Promise<DemoKeys> {
+  const demo = await prepareDemo(app, options);
+  const recordings = await demo.run();
+  return { engineer: demo.engineer, logger: demo.logger, recordings };
+}
+
+/** The quick part of the demo (its keys and machine models, a second or so), ready to push the recordings. */
+export async function prepareDemo(app: FastifyInstance, options: DemoOptions): Promise<PreparedDemo> {
   const admin = { authorization: `Bearer ${options.adminKey}` };
   const engineer = (await inject(app, { method: 'POST', url: '/api/v1/keys', headers: admin, payload: { role: 'engineer', label: 'demo engineer' } })) as { key: string };
   const logger = (await inject(app, { method: 'POST', url: '/api/v1/keys', headers: admin, payload: { role: 'logger', label: 'demo logger' } })) as { key: string };
@@ -104,8 +134,9 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
   const allSlots = Array.from({ length: DEMO_WEEKS * DEMO_RECORDINGS_PER_WEEK }, (_, i) => i);
   const slots = options.slots ?? allSlots;
   const queues = models.flatMap(({ demo, model }, m) =>
-    demo.points.map((pointId, p) => async () => {
+    demo.points.map((pointId, p) => async (counted: () => void, stop?: () => boolean) => {
       for (const slot of slots) {
+        if (stop?.()) return;
         const week = slot / DEMO_RECORDINGS_PER_WEEK;
         // the last slot lands an hour before now, the others spread evenly before it
         const recordedAt = new Date(start.getTime() + (slot + 1) * (WEEK_MS / DEMO_RECORDINGS_PER_WEEK) - 3_600_000);
@@ -130,21 +161,35 @@ export async function seedDemo(app: FastifyInstance, _sql: Sql, _siteId: string,
             'content-type': 'audio/wav',
             'idempotency-key': `demo:${model.id}:${pointId}:${slot}`,
             'x-recorded-at': recordedAt.toISOString(),
-            // the demo's history is analysed as it is pushed (RFC 7240 Prefer: wait)
+            // a logger set up for the point states the unit its channel is in
+            'x-unit': vibration.channels[0]!.unit,
+            // the demo's history is analysed as it is pushed, oldest first per point (RFC 7240 Prefer: wait)
             prefer: 'wait=120',
           },
           payload: wav,
         });
+        counted();
       }
     }),
   );
   const parallel = Math.max(1, options.parallel ?? 3);
-  let next = 0;
-  await Promise.all(
-    Array.from({ length: Math.min(parallel, queues.length) }, async () => {
-      while (next < queues.length) await queues[next++]!();
-    }),
-  );
-  const recordings = queues.length * slots.length;
-  return { engineer: engineer.key, logger: logger.key, recordings };
+  return {
+    engineer: engineer.key,
+    logger: logger.key,
+    total: queues.length * slots.length,
+    async run(onRecording, stop) {
+      let done = 0;
+      const counted = () => {
+        done += 1;
+        onRecording?.(done);
+      };
+      let next = 0;
+      await Promise.all(
+        Array.from({ length: Math.min(parallel, queues.length) }, async () => {
+          while (next < queues.length && !stop?.()) await queues[next++]!(counted, stop);
+        }),
+      );
+      return done;
+    },
+  };
 }

@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { decodeRecording, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
+import { decodeRecording, recordingWarnings, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
 import type { AnalysisPool } from './analysis-pool.js';
 import type { analyse, RecordingAnalysis } from './analysis.js';
 import type { AnalysisQueue } from './analysis-queue.js';
@@ -34,12 +34,10 @@ export interface UploadInput {
   idempotencyKey: string | null;
   recordedAt: Date | null;
   speedRpm: number | null;
-  /** Unit for channels whose file names none (raw floats, float WAV): the point's unit. */
-  defaultUnit: string | null;
+  /** The channel to analyse: a 1-based number or a channel name; null lets the analysis choose. */
+  channel?: string | null;
 }
 
-/** Units a decoder reports when the file does not say. */
-const UNSTATED_UNITS = new Set(['', 'unknown']);
 
 export interface AnalysisSummary {
   analysisId: string;
@@ -48,6 +46,11 @@ export interface AnalysisSummary {
   speedHz: number | null;
   speedSource: string | null;
   topHypotheses: Array<{ fault: string; component: string; score: number; reason: string }>;
+  /** the decoder's warnings about the file, then the analysis's: everything assumed or set aside */
+  warnings: string[];
+  /** the channel analysed, numbered from 1, and every channel of the recording */
+  analysedChannel: number | null;
+  channels: Array<{ name: string; unit: string }>;
 }
 
 export interface UploadResult {
@@ -58,7 +61,10 @@ export interface UploadResult {
   timings?: { decodeMs: number; analysisMs: number; storeMs: number };
 }
 
-export function summarise(analysisId: string, a: RecordingAnalysis): AnalysisSummary {
+/** What an answer shows of the stored recording beside its analysis: the file's warnings and its channels. */
+export type RecordingFacts = { metadata: Readonly<Record<string, string>>; channels: ReadonlyArray<{ name: string; unit: string }> };
+
+export function summarise(analysisId: string, a: RecordingAnalysis, recording: RecordingFacts): AnalysisSummary {
   return {
     analysisId,
     velocityRmsMmPerS: finiteOrNull(a.overall?.velocityRmsMmPerS),
@@ -67,6 +73,9 @@ export function summarise(analysisId: string, a: RecordingAnalysis): AnalysisSum
     speedSource: a.speedSource ?? null,
     // hypotheses come highest score first, so those >= 0.5 lead
     topHypotheses: (a.hypotheses ?? []).slice(0, 5).map((h) => ({ fault: h.fault, component: h.component, score: h.score, reason: h.reason })),
+    warnings: [...recordingWarnings(recording.metadata), ...(a.warnings ?? [])],
+    analysedChannel: typeof a.channel === 'number' ? a.channel + 1 : null,
+    channels: recording.channels.map((c) => ({ name: c.name, unit: c.unit })),
   };
 }
 
@@ -132,12 +141,31 @@ export interface IngestServices {
   budget?: SampleBudget;
 }
 
+/** The 1-based number of the channel a request names by number or name; the problem lists the channels. */
+export function channelNumber(recording: Pick<Recording, 'channels'>, selector: string): number {
+  const byName = recording.channels.findIndex((c) => c.name === selector);
+  if (byName >= 0) return byName + 1;
+  const n = Number(selector);
+  if (Number.isInteger(n) && n >= 1 && n <= recording.channels.length) return n;
+  const list = recording.channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ');
+  throw problem('validation-failed', `query.channel: '${selector}' names no channel; the recording has ${list}`, {
+    errors: [{ path: 'query.channel', message: `names no channel; the recording has ${list}` }],
+  });
+}
+
 /**
  * The answer an upload gives once its recording is stored: 201 (or 200 for a retry) with the analysis when it
  * was stored within `waitMs`, the analysis problem (422, with the recording id) when the recording cannot be
  * analysed, else 202: the recording is safe and its analysis follows (poll its Location).
  */
-async function answerFor(services: IngestServices, recordingId: string, duplicate: boolean, waitMs: number, timings?: UploadResult['timings']): Promise<UploadResult> {
+async function answerFor(
+  services: IngestServices,
+  stored: { id: string; facts: RecordingFacts },
+  duplicate: boolean,
+  waitMs: number,
+  timings?: UploadResult['timings'],
+): Promise<UploadResult> {
+  const recordingId = stored.id;
   const t0 = performance.now();
   const state = await services.queue.waitFor(recordingId, waitMs);
   const waited = performance.now() - t0;
@@ -154,13 +182,13 @@ async function answerFor(services: IngestServices, recordingId: string, duplicat
       recordingId,
       duplicate,
       analysisState: state === 'queued' ? 'queued' : 'done',
-      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis) : null,
+      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis, stored.facts) : null,
     },
     ...(withWait ? { timings: withWait } : {}),
   };
 }
 
-async function duplicateOf(sql: Queryable, input: UploadInput, contentHash: Buffer): Promise<string | null> {
+async function duplicateOf(sql: Queryable, input: UploadInput, contentHash: Buffer): Promise<{ id: string; facts: RecordingFacts } | null> {
   const earlier = await findDuplicateRecording(sql, {
     siteId: input.key.siteId,
     pointId: input.point.id,
@@ -174,13 +202,14 @@ async function duplicateOf(sql: Queryable, input: UploadInput, contentHash: Buff
       `Idempotency-Key '${input.idempotencyKey}' was first used for recording ${earlier.id} with other content or another point; use a new key for new content`,
     );
   }
-  return earlier.id;
+  return { id: earlier.id, facts: earlier };
 }
 
 /**
  * Ingest: bytes in, one stored recording and its queued analysis out. Decoding comes first, so a bad body
- * stores nothing; then one transaction stores the recording and sends its analysis job (analysis-queue.ts).
- * From the commit on the recording is durable: the answer then waits up to `waitMs` for the analysis.
+ * stores nothing; then one transaction stores the recording (with the channel the request named) and sends its
+ * analysis job (analysis-queue.ts). From the commit on the recording is durable: the answer then waits up to
+ * `waitMs` for the analysis.
  */
 export async function ingestRecording(services: IngestServices, input: UploadInput, waitMs: number): Promise<UploadResult> {
   const { sql } = services;
@@ -192,6 +221,7 @@ export async function ingestRecording(services: IngestServices, input: UploadInp
   const decoded = decodeBody(input.bytes, input.hint);
   const release = services.budget?.admit(decoded.channels.reduce((n, c) => n + c.samples.length, 0)) ?? (() => {});
   let recordingId: string;
+  let recording: Recording;
   let t1: number;
   let t2: number;
   try {
@@ -199,16 +229,19 @@ export async function ingestRecording(services: IngestServices, input: UploadInp
     const samples = packSamples(decoded.channels.map((c) => c.samples));
     // analyse exactly what is stored (float32), so a re-analysis of the same version repeats the result:
     // rounded in place (the decoder's arrays are ours), not unpacked into a second copy of the recording
-    const recording: Recording = {
+    recording = {
       sampleRateHz: decoded.sampleRateHz,
       metadata: decoded.metadata,
       channels: decoded.channels.map((c) => ({
         name: c.name,
-        unit: UNSTATED_UNITS.has(c.unit) && input.defaultUnit ? input.defaultUnit : c.unit,
+        // a channel whose file states no unit stays 'unknown': the analysis reads it in the point's unit and says so
+        unit: c.unit,
         samples: roundToFloat32(c.samples),
       })),
     };
+    const channel = input.channel ? channelNumber(recording, input.channel) : null;
     const recordedAt = recordedAtOf(input.recordedAt, recording);
+    const toStore = recording;
     t1 = performance.now();
     try {
       recordingId = await sql.begin(async (tx) => {
@@ -216,17 +249,18 @@ export async function ingestRecording(services: IngestServices, input: UploadInp
           siteId: input.key.siteId,
           pointId: input.point.id,
           recordedAt,
-          sampleRateHz: recording.sampleRateHz,
+          sampleRateHz: toStore.sampleRateHz,
           sampleCount,
-          channels: recording.channels.map((c) => ({ name: c.name, unit: c.unit })),
+          channels: toStore.channels.map((c) => ({ name: c.name, unit: c.unit })),
           samples,
           contentHash,
           idempotencyKey: input.idempotencyKey,
           sourceFormat: input.sourceFormat,
           speedRpm: input.speedRpm,
-          metadata: recording.metadata,
+          metadata: toStore.metadata,
           uploadedBy: input.key.id,
           analysisState: 'queued',
+          analysisChannel: channel,
         });
         await services.queue.enqueueIn(tx, id);
         return id;
@@ -244,5 +278,5 @@ export async function ingestRecording(services: IngestServices, input: UploadInp
   } finally {
     release();
   }
-  return answerFor(services, recordingId, false, waitMs, { decodeMs: t1 - t0, storeMs: t2 - t1, analysisMs: 0 });
+  return answerFor(services, { id: recordingId, facts: recording }, false, waitMs, { decodeMs: t1 - t0, storeMs: t2 - t1, analysisMs: 0 });
 }

@@ -1,3 +1,5 @@
+import { ACCEPTED_UNITS } from '@kinespec/signal';
+
 /*
  * The service's one error registry (RFC 9457 problem details). Each problem type has a stable `type` URI,
  * a title and a status; README.md lists every one (a test holds the list and the docs in step).
@@ -21,6 +23,7 @@ const general = [
   { slug: 'forbidden', status: 403, title: "The key's role does not allow this" },
   { slug: 'not-found', status: 404, title: 'No such resource on this site' },
   { slug: 'idempotency-key-reused', status: 409, title: 'The Idempotency-Key was already used for different content' },
+  { slug: 'conflict', status: 409, title: 'The change clashes with what is stored' },
   { slug: 'payload-too-large', status: 413, title: 'The request body is larger than the service accepts' },
   { slug: 'uri-too-long', status: 414, title: 'A part of the request path is longer than the service accepts' },
   { slug: 'unsupported-media-type', status: 415, title: 'The content type is not one the route accepts' },
@@ -62,6 +65,7 @@ export const recordingProblemByCode = {
   json_syntax: { status: 400, title: 'The body is not valid JSON' },
   json_schema: { status: 422, title: 'The JSON document does not have the recording shape' },
   raw_size_mismatch: { status: 400, title: 'The raw byte count is not a whole number of samples' },
+  unknown_unit: { status: 400, title: 'The unit is not one Kinespec knows' },
 } as const satisfies Record<string, { status: number; title: string }>;
 
 export type RecordingProblemCode = keyof typeof recordingProblemByCode;
@@ -141,5 +145,7 @@ export function problem(slug: ProblemSlug, detail: string, extras?: ProblemError
 export function recordingProblem(code: string, message: string, where?: string): ProblemError {
   const slug = code in recordingProblemByCode ? recordingProblemSlug(code) : 'recording-invalid';
   const detail = where ? `${message} (at ${where})` : message;
-  return new ProblemError(slug, detail, { code, ...(where ? { where } : {}) });
+  // an unknown unit answers with the list to choose from, as data as well as in the detail
+  const accepted = code === 'unknown_unit' ? { acceptedUnits: [...ACCEPTED_UNITS] } : {};
+  return new ProblemError(slug, detail, { code, ...(where ? { where } : {}), ...accepted });
 }

@@ -1,4 +1,4 @@
-import type { Recording } from '@kinespec/signal';
+import { recordedAtMetadataKeys, type Recording } from '@kinespec/signal';
 import { problem, ProblemError } from './problems.js';
 
 /*
@@ -13,9 +13,6 @@ export const MAX_FUTURE_SKEW_MS = 86_400_000;
 
 /** The earliest time accepted (no digital vibration recording is older; it also keeps every time in PostgreSQL's range). */
 export const EARLIEST_RECORDED_AT = new Date('1900-01-01T00:00:00Z');
-
-/** Metadata keys a file may give its recording time in, in order of preference. */
-export const RECORDED_AT_METADATA_KEYS = ['recordedAt', 'recorded_at', 'startTime', 'start_time', 'timestamp'] as const;
 
 /** Throws the problem for a time out of [EARLIEST_RECORDED_AT, now + MAX_FUTURE_SKEW_MS]; `source` names where it came from. */
 export function checkRecordedAt(at: Date, source: string, now: Date = new Date()): Date {
@@ -38,7 +35,8 @@ export function checkRecordedAt(at: Date, source: string, now: Date = new Date()
  */
 export function recordedAtOf(requestTime: Date | null, recording: Pick<Recording, 'metadata'>, now: Date = new Date()): Date {
   if (requestTime) return checkRecordedAt(requestTime, 'query.recordedAt', now);
-  for (const key of RECORDED_AT_METADATA_KEYS) {
+  // the keys a file may give its recording time in, in order of preference (one list: @kinespec/signal's)
+  for (const key of recordedAtMetadataKeys) {
     const text = recording.metadata[key];
     if (!text) continue;
     const at = new Date(text);

@@ -40,6 +40,9 @@ export const analysisSummarySchema = z.object({
   speedHz: z.number().nullable(),
   speedSource: z.string().nullable(),
   topHypotheses: z.array(z.object({ fault: z.string(), component: z.string(), score: z.number(), reason: z.string() })),
+  warnings: z.array(z.string()).describe("What was assumed or set aside: the decoder's warnings, then the analysis's (unit read as the point's, nominal speed used, ...)"),
+  analysedChannel: z.number().nullable().describe('The channel the analysis read, numbered from 1'),
+  channels: z.array(z.object({ name: z.string(), unit: z.string() })).describe('Every channel of the recording, in order'),
 });
 
 export const uploadResultSchema = z.object({

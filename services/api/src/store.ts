@@ -286,6 +286,8 @@ export interface RecordingRow {
   metadata: Record<string, string>;
   /** When the retention setting dropped the raw samples; null while they are kept. */
   samplesPurgedAt: Date | null;
+  /** The channel (1-based) the upload asked the analysis to read, or null when the analysis chooses; re-analyses read it too. */
+  analysisChannel: number | null;
 }
 
 export interface NewRecording {
@@ -304,13 +306,16 @@ export interface NewRecording {
   uploadedBy: string | null;
   /** 'queued' when a job of the analysis queue will analyse it. */
   analysisState?: 'queued' | 'done';
+  /** The channel (1-based) to analyse; null or absent lets the analysis choose. */
+  analysisChannel?: number | null;
 }
 
 const recordingColumns = (sql: Queryable) => sql`
   r.id, r.site_id as "siteId", r.point_id as "pointId", m.machine_key as "machineKey", p.point_key as "pointKey",
   r.recorded_at as "recordedAt", r.received_at as "receivedAt", r.sample_rate_hz as "sampleRateHz",
   r.sample_count as "sampleCount", r.channels, r.content_hash as "contentHash", r.idempotency_key as "idempotencyKey",
-  r.source_format as "sourceFormat", r.speed_rpm as "speedRpm", r.metadata, r.samples_purged_at as "samplesPurgedAt"`;
+  r.source_format as "sourceFormat", r.speed_rpm as "speedRpm", r.metadata, r.samples_purged_at as "samplesPurgedAt",
+  r.analysis_channel as "analysisChannel"`;
 
 /** Serialises every write that touches one point's trends and alarms (ingest, re-analysis). */
 export async function lockPoint(tx: Queryable, pointId: number): Promise<void> {
@@ -340,10 +345,10 @@ export async function findDuplicateRecording(
 export async function insertRecording(tx: Queryable, r: NewRecording): Promise<string> {
   const [row] = await tx<{ id: string }[]>`
     insert into recordings (site_id, point_id, recorded_at, sample_rate_hz, sample_count, channels, samples,
-      content_hash, idempotency_key, source_format, speed_rpm, metadata, uploaded_by, analysis_state)
+      content_hash, idempotency_key, source_format, speed_rpm, metadata, uploaded_by, analysis_state, analysis_channel)
     values (${r.siteId}, ${r.pointId}, ${r.recordedAt}, ${r.sampleRateHz}, ${r.sampleCount}, ${json(tx, r.channels)},
       decode(${r.samples.toString('base64')}, 'base64'), ${r.contentHash}, ${r.idempotencyKey}, ${r.sourceFormat}, ${r.speedRpm}, ${json(tx, r.metadata)},
-      ${r.uploadedBy}, ${r.analysisState ?? 'done'})
+      ${r.uploadedBy}, ${r.analysisState ?? 'done'}, ${r.analysisChannel ?? null})
     returning id`;
   return row!.id;
 }
@@ -743,18 +748,36 @@ export async function trendBuckets(
     group by 1 order by 1`;
 }
 
-/** The alarm and trip levels the newest analysed recording of a point was graded with (before `to`); null when none. */
-export async function latestGradedLevels(
-  sql: Queryable,
-  pointId: number,
-  to: Date,
-): Promise<{ alarmLevel: number | null; tripLevel: number | null } | null> {
-  const [row] = await sql<{ alarmLevel: number | null; tripLevel: number | null }[]>`
-    select a.alarm_level_mm_per_s as "alarmLevel", a.trip_level_mm_per_s as "tripLevel"
-    from recordings r join analyses a on a.recording_id = r.id and a.is_current
-    where r.point_id = ${pointId} and r.recorded_at < ${to} and (a.alarm_level_mm_per_s is not null or a.trip_level_mm_per_s is not null)
-    order by r.recorded_at desc limit 1`;
-  return row ?? null;
+/** How the newest analysis of a point graded the overall velocity, and the model version it graded against. */
+export interface GradedLevels {
+  /** The alarm and trip levels stored with the analysis; null when it stored none (analyses made before levels were graded). */
+  levels: { alarmLevel: number | null; tripLevel: number | null } | null;
+  modelVersion: number | null;
+}
+
+/**
+ * For each point, the grading of its newest analysed recording taken before `to` (a recording still queued has no
+ * analysis and is passed over); points with no analysed recording are absent. One index range scan per point
+ * (recordings_point_time), newest first, stopping at the first analysed recording.
+ */
+export async function latestGradedLevels(sql: Queryable, pointIds: readonly number[], to: Date): Promise<Map<number, GradedLevels>> {
+  const out = new Map<number, GradedLevels>();
+  if (pointIds.length === 0) return out;
+  const rows = await sql<{ pointId: number; alarmLevel: number | null; tripLevel: number | null; modelVersion: number | null }[]>`
+    select p.id as "pointId", g.alarm_level_mm_per_s as "alarmLevel", g.trip_level_mm_per_s as "tripLevel", g.model_version as "modelVersion"
+    from unnest(${sql.array([...pointIds])}::int[]) as p(id)
+    cross join lateral (
+      select a.alarm_level_mm_per_s, a.trip_level_mm_per_s, a.model_version
+      from recordings r join analyses a on a.recording_id = r.id and a.is_current
+      where r.point_id = p.id and r.recorded_at < ${to}
+      order by r.recorded_at desc limit 1) g`;
+  for (const r of rows) {
+    out.set(r.pointId, {
+      levels: r.alarmLevel === null && r.tripLevel === null ? null : { alarmLevel: r.alarmLevel, tripLevel: r.tripLevel },
+      modelVersion: r.modelVersion,
+    });
+  }
+  return out;
 }
 
 /** Every indicator recorded at a point (or at every point of a machine), with how many values it has. */
@@ -956,4 +979,135 @@ export async function acknowledgeAlarm(sql: Queryable, siteId: string, alarmId: 
 
 export async function ping(sql: Sql): Promise<void> {
   await sql`select 1`;
+}
+
+// ---------------------------------------------------------------- corrections (delete, move) and their audit log
+
+/** What the audit log keeps of a recording: enough to tell which one it was and where it was filed. */
+export interface RecordingIdentity {
+  machineId: string;
+  pointId: string;
+  recordedAt: string;
+  contentSha256: string;
+  sourceFormat: string;
+  sampleCount: number;
+  sampleRateHz: number;
+  zone: string | null;
+  velocityRmsMmPerS: number | null;
+}
+
+export async function recordingIdentity(sql: Queryable, recordingId: string): Promise<RecordingIdentity | null> {
+  const [row] = await sql<RecordingIdentity[]>`
+    select m.machine_key as "machineId", p.point_key as "pointId", r.recorded_at as "recordedAt",
+      encode(r.content_hash, 'hex') as "contentSha256", r.source_format as "sourceFormat", r.sample_count as "sampleCount",
+      r.sample_rate_hz as "sampleRateHz", a.zone, a.velocity_rms_mm_per_s as "velocityRmsMmPerS"
+    from recordings r join points p on p.id = r.point_id join machines m on m.id = p.machine_id
+    left join analyses a on a.recording_id = r.id and a.is_current
+    where r.id = ${recordingId}`;
+  return row ? { ...row, recordedAt: new Date(row.recordedAt).toISOString() } : null;
+}
+
+/** Deletes a recording with its analyses and trend values (foreign keys cascade); its alarms keep a null recording. */
+export async function deleteRecordingRow(tx: Queryable, recordingId: string): Promise<boolean> {
+  const removed = await tx`delete from recordings where id = ${recordingId}`;
+  return removed.count > 0;
+}
+
+/** Files a recording under another point and time. */
+export async function moveRecordingRow(tx: Queryable, recordingId: string, pointId: number, recordedAt: Date): Promise<void> {
+  await tx`update recordings set point_id = ${pointId}, recorded_at = ${recordedAt} where id = ${recordingId}`;
+}
+
+/**
+ * Rebuilds one UTC day of a point's daily roll-up from its trend values, after a recording left that day
+ * (deleted, or moved to another point or day).
+ */
+export async function rebuildTrendDay(tx: Queryable, pointId: number, at: Date): Promise<void> {
+  const day = utcDay(at);
+  const dayEnd = new Date(day.getTime() + 86_400_000);
+  await tx`delete from trend_daily where point_id = ${pointId} and day = ${dayText(day)}::date`;
+  await tx`
+    insert into trend_daily (point_id, indicator, day, count, sum, min, max, last_value, last_at)
+    select point_id, indicator, ${dayText(day)}::date, count(*), sum(value), min(value), max(value),
+      (array_agg(value order by recorded_at desc))[1], max(recorded_at)
+    from trend_values
+    where point_id = ${pointId} and recorded_at >= ${day} and recorded_at < ${dayEnd}
+    group by point_id, indicator`;
+}
+
+/**
+ * The newest analysed recording of a point with its current trend values and the alarm and trip levels its analysis
+ * graded the overall velocity with (null when it graded none); null when the point has no analysed recording. A
+ * recording still queued is left out: its job applies the alarm rule when it stores the analysis.
+ */
+export async function newestRecordingValues(
+  tx: Queryable,
+  pointId: number,
+): Promise<{ recordingId: string; recordedAt: Date; indicators: Record<string, number>; velocityLevels: { alarmLevel: number | null; tripLevel: number | null } | null } | null> {
+  const [newest] = await tx<{ id: string; recordedAt: Date; alarmLevel: number | null; tripLevel: number | null }[]>`
+    select r.id, r.recorded_at as "recordedAt", a.alarm_level_mm_per_s as "alarmLevel", a.trip_level_mm_per_s as "tripLevel"
+    from recordings r join analyses a on a.recording_id = r.id and a.is_current
+    where r.point_id = ${pointId} order by r.recorded_at desc, r.id desc limit 1`;
+  if (!newest) return null;
+  const rows = await tx<{ indicator: string; value: number }[]>`select indicator, value from trend_values where recording_id = ${newest.id}`;
+  return {
+    recordingId: newest.id,
+    recordedAt: newest.recordedAt,
+    indicators: Object.fromEntries(rows.map((r) => [r.indicator, r.value])),
+    velocityLevels: newest.alarmLevel === null && newest.tripLevel === null ? null : { alarmLevel: newest.alarmLevel, tripLevel: newest.tripLevel },
+  };
+}
+
+/** Clears every open alarm of a point (its last recording is gone). */
+export async function clearPointAlarms(tx: Queryable, pointId: number, at: Date, by: string): Promise<number> {
+  const cleared = await tx`update alarms set cleared_at = ${at}, cleared_by = ${by} where point_id = ${pointId} and cleared_at is null`;
+  return cleared.count;
+}
+
+export interface AuditEntry {
+  id: string;
+  recordingId: string;
+  action: 'delete' | 'move';
+  at: Date;
+  by: string;
+  reason: string;
+  before: RecordingIdentity;
+  after: { machineId: string; pointId: string; recordedAt: string } | null;
+}
+
+export async function insertAuditEntry(
+  tx: Queryable,
+  e: { siteId: string; recordingId: string; action: 'delete' | 'move'; byKeyId: string; by: string; reason: string; before: RecordingIdentity; after: AuditEntry['after'] },
+): Promise<AuditEntry> {
+  const [row] = await tx<AuditEntry[]>`
+    insert into recording_audit (site_id, recording_id, action, by_key_id, by_name, reason, before, after)
+    values (${e.siteId}, ${e.recordingId}, ${e.action}, ${e.byKeyId}, ${e.by}, ${e.reason}, ${json(tx, e.before)}, ${e.after === null ? null : json(tx, e.after)})
+    returning id::text, recording_id as "recordingId", action, at, by_name as by, reason, before, after`;
+  return row!;
+}
+
+/** A site's corrections, newest first; optionally those touching one machine (before or after) or one recording. */
+export async function listAuditEntries(
+  sql: Queryable,
+  siteId: string,
+  q: { machineKey?: string; recordingId?: string; limit: number },
+): Promise<AuditEntry[]> {
+  const machine = q.machineKey ?? null;
+  const recording = q.recordingId !== undefined && isUuid(q.recordingId) ? q.recordingId : q.recordingId !== undefined ? '00000000-0000-0000-0000-000000000000' : null;
+  return sql<AuditEntry[]>`
+    select id::text, recording_id as "recordingId", action, at, by_name as by, reason, before, after
+    from recording_audit
+    where site_id = ${siteId}
+      and (${machine}::text is null or before->>'machineId' = ${machine} or after->>'machineId' = ${machine})
+      and (${recording}::uuid is null or recording_id = ${recording}::uuid)
+    order by at desc, id desc
+    limit ${q.limit}`;
+}
+
+/** Clears the open alarms of a point that a recording raised (or last escalated); returns how many. */
+export async function clearAlarmsRaisedBy(tx: Queryable, pointId: number, recordingId: string, at: Date, by: string): Promise<number> {
+  const cleared = await tx`
+    update alarms set cleared_at = ${at}, cleared_by = ${by}
+    where point_id = ${pointId} and recording_id = ${recordingId} and cleared_at is null`;
+  return cleared.count;
 }

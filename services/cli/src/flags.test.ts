@@ -101,3 +101,12 @@ describe('parseFlags', () => {
     expect(message!.split('\n')).toHaveLength(1);
   });
 });
+
+describe('renamed flags', () => {
+  it('answers a flag that was renamed with its new name, in the one-line usage error', () => {
+    expect(messageOf(() => parseFlags(['a.wav', '--sample-rate', '1000'], { 'sample-rate-hz': { type: 'string' } }, 'kinespec x <file>'))).toBe(
+      '--sample-rate is now --sample-rate-hz (usage: kinespec x <file>)',
+    );
+    expect(messageOf(() => parseFlags(['--sample-rate=1000'], { 'sample-rate-hz': { type: 'string' } }, 'u'))).toBe('--sample-rate is now --sample-rate-hz (usage: u)');
+  });
+});

@@ -12,8 +12,21 @@ export function parseFlags<const O extends FlagOptions>(args: string[], options:
   try {
     return parseArgs({ args, options, allowPositionals: true, strict: true });
   } catch (err) {
-    throw new CliError(`${(err as Error).message.split('\n')[0]} (usage: ${usage})`);
+    throw new CliError(`${renamedFlagHint(args) ?? (err as Error).message.split('\n')[0]} (usage: ${usage})`);
   }
+}
+
+/** Flags that had another name once: one name for one thing, and the old one answered with the new. */
+export const renamedFlags: Readonly<Record<string, string>> = { '--sample-rate': '--sample-rate-hz' };
+
+/** "--sample-rate is now --sample-rate-hz" when the arguments use an old name, else undefined. */
+export function renamedFlagHint(args: readonly string[]): string | undefined {
+  for (const arg of args) {
+    const name = arg.split('=')[0]!;
+    const now = renamedFlags[name];
+    if (now) return `${name} is now ${now}`;
+  }
+  return undefined;
 }
 
 /**

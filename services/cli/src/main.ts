@@ -8,16 +8,25 @@ function version(): string {
   return pkg.version;
 }
 
-function help(): string {
-  const verbs = Object.keys(verbLoaders).sort().map((v) => `  ${v}`).join('\n');
-  return `kinespec ${version()}: condition monitoring for rotating machinery\n\nUsage: kinespec <verb> [options]\n\nVerbs:\n${verbs}\n\nRun 'kinespec <verb> --help' for a verb's options.`;
+/** The first clause of a verb's summary, for the list of verbs. */
+export function brief(summary: string): string {
+  const clause = summary.split('\n')[0]!.split(/[:;]\s/)[0]!.replace(/\.$/, '');
+  const first = clause.charAt(0).toUpperCase() + clause.slice(1);
+  return first.length > 90 ? `${first.slice(0, 89)}…` : first;
+}
+
+async function help(): Promise<string> {
+  const names = Object.keys(verbLoaders).sort();
+  const width = Math.max(...names.map((n) => n.length));
+  const verbs = await Promise.all(names.map(async (n) => `  ${n.padEnd(width)}  ${brief((await verbLoaders[n]!()).summary)}`));
+  return `kinespec ${version()}: condition monitoring for rotating machinery\n\nUsage: kinespec <verb> [options]\n\nVerbs:\n${verbs.join('\n')}\n\nRun 'kinespec <verb> --help' for a verb's options.`;
 }
 
 /** Runs the CLI and returns the exit code; every expected failure becomes one line on stderr. */
 export async function main(argv: string[], io: CliIo = processIo): Promise<number> {
   const [verbName, ...rest] = argv;
   if (verbName === undefined || verbName === '--help' || verbName === '-h' || verbName === 'help') {
-    io.out(help());
+    io.out(await help());
     return 0;
   }
   if (verbName === '--version' || verbName === '-v') {

@@ -45,15 +45,20 @@ describe('selectChannel', () => {
 });
 
 describe('decoderHint', () => {
-  it('passes --sample-rate and --unit on, leaving out the absent ones', () => {
+  it('passes --sample-rate-hz and --unit on, leaving out the absent ones', () => {
     expect(decoderHint(undefined, undefined)).toEqual({});
     expect(decoderHint('25600', 'g')).toEqual({ sampleRateHz: 25600, unit: 'g' });
     expect(decoderHint(undefined, 'mm/s')).toEqual({ unit: 'mm/s' });
   });
 
-  it('refuses a sample rate that is not > 0 and a blank unit', () => {
-    expect(() => decoderHint('0', undefined)).toThrow("--sample-rate must be a sample rate in Hz > 0 (got '0')");
-    expect(() => decoderHint(undefined, ' ')).toThrow('--unit must name a unit, e.g. g, m/s^2, mm/s');
+  it('refuses a sample rate that is not > 0, and a unit it does not know with the accepted list', () => {
+    expect(() => decoderHint('0', undefined)).toThrow("--sample-rate-hz must be a sample rate in Hz > 0 (got '0')");
+    expect(() => decoderHint(undefined, ' ')).toThrow("--unit: ' ' is not a unit Kinespec knows; accepted: g, m/s^2");
+    expect(() => decoderHint(undefined, 'furlongs')).toThrow(/^--unit: 'furlongs' is not a unit Kinespec knows; accepted: g, m\/s\^2, .*\(vibration\); V, mV, counts, FS/);
+  });
+
+  it('writes a unit in its canonical spelling', () => {
+    expect(decoderHint(undefined, 'm/s2')).toEqual({ unit: 'm/s^2' });
   });
 });
 

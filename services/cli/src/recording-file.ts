@@ -1,5 +1,5 @@
 import { basename } from 'node:path';
-import { SignalInputError, decodeRecording, type Channel, type Recording } from '@kinespec/signal';
+import { SignalInputError, checkChannelUnit, decodeRecording, type Channel, type Recording } from '@kinespec/signal';
 import { CliError } from './cli-error.js';
 import { positiveNumber } from './flags.js';
 import { readInputFile } from './input-file.js';
@@ -10,11 +10,31 @@ export interface DecoderHint {
   unit?: string;
 }
 
-/** The decoder hint from --sample-rate and --unit (either may be absent). */
+/** The flags every verb that reads a recording file takes for what the file may not say. */
+export const recordingHintFlags = {
+  'sample-rate-hz': { type: 'string' },
+  unit: { type: 'string' },
+} as const;
+
+/** Usage text of those flags. */
+export const RECORDING_HINT_USAGE = '[--sample-rate-hz F] [--unit g]';
+
+/** The unit of --unit in its canonical spelling; an unknown one is a one-line error listing the accepted units. */
+export function unitFlag(text: string | undefined): string | undefined {
+  if (text === undefined) return undefined;
+  try {
+    return checkChannelUnit(text, '--unit');
+  } catch (err) {
+    if (err instanceof SignalInputError) throw new CliError(err.message);
+    throw err;
+  }
+}
+
+/** The decoder hint from --sample-rate-hz and --unit (either may be absent). */
 export function decoderHint(sampleRateText: string | undefined, unitText: string | undefined): DecoderHint {
-  const sampleRateHz = positiveNumber('sample-rate', sampleRateText, 'a sample rate in Hz > 0');
-  if (unitText !== undefined && unitText.trim() === '') throw new CliError('--unit must name a unit, e.g. g, m/s^2, mm/s');
-  return { ...(sampleRateHz !== undefined ? { sampleRateHz } : {}), ...(unitText !== undefined ? { unit: unitText } : {}) };
+  const sampleRateHz = positiveNumber('sample-rate-hz', sampleRateText, 'a sample rate in Hz > 0');
+  const unit = unitFlag(unitText);
+  return { ...(sampleRateHz !== undefined ? { sampleRateHz } : {}), ...(unit !== undefined ? { unit } : {}) };
 }
 
 /** The one recording file of a verb's positionals. */

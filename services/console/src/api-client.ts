@@ -42,6 +42,8 @@ export interface UploadHandle<T> {
 export interface ApiClient {
   get<T>(path: string, query?: Query): Promise<T>;
   post<T>(path: string, body?: unknown, query?: Query): Promise<T>;
+  patch<T>(path: string, body: unknown): Promise<T>;
+  delete<T>(path: string, body?: unknown): Promise<T>;
   upload<T>(path: string, file: File, onProgress: (p: UploadProgress) => void, query?: Query): UploadHandle<T>;
 }
 
@@ -106,6 +108,8 @@ export function createApiClient(baseUrl: string, getKey: () => string | null, on
   return {
     get: (path, query) => send('GET', path, undefined, query),
     post: (path, body, query) => send('POST', path, body, query),
+    patch: (path, body) => send('PATCH', path, body),
+    delete: (path, body) => send('DELETE', path, body),
     upload<T>(path: string, file: File, onProgress: (p: UploadProgress) => void, query?: Query): UploadHandle<T> {
       // XMLHttpRequest, not fetch: only XHR reports upload progress in every browser.
       const xhr = new XMLHttpRequest();

@@ -3,9 +3,19 @@
 
 export type Zone = 'A' | 'B' | 'C' | 'D';
 
+export interface DemoStatus {
+  state: 'seeding' | 'done' | 'failed';
+  recordingsDone: number;
+  recordingsTotal: number;
+  error?: string;
+}
+
 export interface Site {
   id: string;
   name: string;
+  role?: 'logger' | 'engineer' | 'admin';
+  /** while the demo's recordings are analysed in the background */
+  demo?: DemoStatus | null;
 }
 
 export interface HypothesisRef {
@@ -107,6 +117,8 @@ export interface Evidence {
   /** labels of the other lines of the model that fall on the same peak */
   ambiguousWith?: string[];
   measuredFrequencyHz?: number | null;
+  /** the prediction scaled to the measurement by the hypothesis's fitted level, in the hypothesis's unit */
+  predictedScaled?: number | null;
 }
 
 export type EvidenceDomain = 'spectrum' | 'envelope' | 'order';
@@ -118,6 +130,13 @@ export interface Hypothesis {
   reason: string;
   domain: EvidenceDomain;
   evidence: Evidence[];
+  /** the unit of predicted (scaled) and measured amplitudes */
+  unit?: string;
+  /** the counts the reason sentence uses */
+  linesMatched?: number;
+  linesPredicted?: number;
+  /** one sentence: how the prediction was scaled to the measurement */
+  scaleNote?: string;
 }
 
 export interface SpectrumData {
@@ -148,6 +167,7 @@ export interface RecordingAnalysis {
     crestFactor: number;
     kurtosis: number;
     envelopeRms?: number;
+    envelopeRmsUnit?: string;
   };
   indicators: Record<string, number>;
   spectrum: SpectrumData;
@@ -156,6 +176,39 @@ export interface RecordingAnalysis {
   hypotheses: Hypothesis[];
   unexplainedPeaks: Array<{ frequencyHz: number; amplitude: number; snrDb: number }>;
   warnings: string[];
+  /** the channel analysed (0-based, as the analysis counts) and the point */
+  channel?: number;
+  pointId?: string | null;
+}
+
+/** GET /api/v1/recordings/:id */
+export interface RecordingMeta {
+  id: string;
+  machineId: string;
+  pointId: string;
+  recordedAt: string;
+  receivedAt: string;
+  sampleRateHz: number;
+  sampleCount: number;
+  channels: number;
+  channelInfo: Array<{ name: string; unit: string }>;
+  durationS: number;
+  sourceFormat: string;
+  speedRpm: number | null;
+  metadata: Record<string, string>;
+  /** the decoder's warnings about the file */
+  warnings?: string[];
+}
+
+export interface AuditEntry {
+  id: string;
+  recordingId: string;
+  action: 'delete' | 'move';
+  at: string;
+  by: string;
+  reason: string;
+  before: { machineId: string; pointId: string; recordedAt: string; contentSha256: string; sourceFormat: string; sampleCount: number; sampleRateHz: number; zone: Zone | null; velocityRmsMmPerS: number | null };
+  after: { machineId: string; pointId: string; recordedAt: string } | null;
 }
 
 export interface IndicatorRow {
@@ -227,12 +280,17 @@ export interface AnalysisSummary {
   speedHz: number | null;
   speedSource: string | null;
   topHypotheses: Array<{ fault: string; component: string; score: number; reason: string }>;
+  warnings?: string[];
+  analysedChannel?: number | null;
+  channels?: Array<{ name: string; unit: string }>;
 }
 
 export interface UploadResult {
   recordingId: string;
   duplicate: boolean;
-  analysis: AnalysisSummary;
+  /** 'queued' (answer 202) until a worker has stored the analysis: poll GET /api/v1/recordings/{id}/analysis */
+  analysisState?: 'queued' | 'done';
+  analysis: AnalysisSummary | null;
 }
 
 /** The predicted signature the explorer draws. Line fields beyond frequency and amplitude are optional. */

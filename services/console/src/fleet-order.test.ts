@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { MachineSummary } from './api-types.js';
-import { concernLevel, filterMachines, indicatorRise, sortMachines } from './fleet-order.js';
+import { concernLevel, filterMachines, indicatorRise, risingRows, sortMachines, sparklineWeeks } from './fleet-order.js';
 
 // Invented fleet: the orderings below are worked out by hand from the rules in fleet-order.ts.
 function machine(id: string, over: Partial<MachineSummary> = {}): MachineSummary {
@@ -85,5 +85,26 @@ describe('indicatorRise', () => {
     ] } });
     expect(indicatorRise(m)).toBeCloseTo(0.5, 12);
     expect(indicatorRise(machine('y'))).toBeNull();
+  });
+});
+
+describe('risingRows', () => {
+  const rows = [
+    { machineId: 'fan', risePercent: 283 },
+    { machineId: 'conveyor', risePercent: 148 },
+    { machineId: 'pump', risePercent: 0.2 },
+    { machineId: 'blower', risePercent: -12 },
+  ];
+  it('keeps only machines the filter shows, and only real rises (no "+0 %" rows, no falls)', () => {
+    expect(risingRows(rows, new Set(['fan', 'conveyor', 'pump', 'blower'])).map((r) => r.machineId)).toEqual(['fan', 'conveyor']);
+    expect(risingRows(rows, new Set(['conveyor', 'pump'])).map((r) => r.machineId)).toEqual(['conveyor']);
+  });
+});
+
+describe('sparklineWeeks', () => {
+  it('counts the weeks between the first and the last weekly bucket', () => {
+    const weeks = ['2026-09-14', '2026-09-21', '2026-11-30'].map((d) => ({ start: `${d}T00:00:00.000Z`, mean: 1 }));
+    expect(sparklineWeeks({ mainIndicator: { indicator: 'v', unit: 'mm/s', sparkline: weeks } } as never)).toBe(11);
+    expect(sparklineWeeks({ mainIndicator: null } as never)).toBeNull();
   });
 });

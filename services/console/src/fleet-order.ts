@@ -21,6 +21,22 @@ export function concernLevel(m: MachineSummary): ConcernLevel {
   return 1;
 }
 
+/** Whole weeks between the first and the last bucket of the main indicator's sparkline (the period of indicatorRise). */
+export function sparklineWeeks(m: MachineSummary): number | null {
+  const line = m.mainIndicator?.sparkline ?? [];
+  if (line.length < 2) return null;
+  const ms = new Date(line[line.length - 1]!.start).getTime() - new Date(line[0]!.start).getTime();
+  return Number.isFinite(ms) ? Math.round(ms / (7 * 86_400_000)) : null;
+}
+
+/**
+ * The rows of the "rising fastest" table that deserve a place: machines the fleet filter shows, whose indicator
+ * rose by at least half a per cent (less rounds to "+0 %", which is no rise at all).
+ */
+export function risingRows<R extends { machineId: string; risePercent: number }>(rows: readonly R[], shown: ReadonlySet<string>): R[] {
+  return rows.filter((r) => shown.has(r.machineId) && Number.isFinite(r.risePercent) && r.risePercent >= 0.5);
+}
+
 /** Relative change of the main indicator over its sparkline (last bucket against the first), or null. */
 export function indicatorRise(m: MachineSummary): number | null {
   const line = m.mainIndicator?.sparkline ?? [];

@@ -133,6 +133,41 @@ async function start(notice?: string): Promise<void> {
     void renderRoute(ctx, main, nav);
   };
   await renderRoute(ctx, main, nav);
+  if (site.demo && site.demo.state === 'seeding') followDemo(site, main, () => {
+    machinesPromise = null;
+    details.clear();
+    void renderRoute(ctx, main, nav);
+  });
+}
+
+/** Shows how far the demo's background seeding is, and redraws the page once it is complete. */
+function followDemo(site: Site, main: HTMLElement, onDone: () => void): void {
+  const banner = h('p', { class: 'demo-progress', id: 'demo-progress', role: 'status' });
+  main.before(banner);
+  const show = (d: NonNullable<Site['demo']>) => {
+    banner.dataset.state = d.state;
+    banner.textContent =
+      d.state === 'seeding'
+        ? `Loading the demo: ${d.recordingsDone} of ${d.recordingsTotal} simulated recordings analysed. Pages show what is in so far and fill in as the weeks arrive.`
+        : d.state === 'done'
+          ? `The demo is loaded: ${d.recordingsTotal} recordings analysed.`
+          : `The demo could not be loaded completely: ${d.error ?? 'unknown error'}.`;
+  };
+  show(site.demo!);
+  const timer = window.setInterval(() => {
+    void api.get<Site>('/api/v1/site').then(
+      (s) => {
+        if (!s.demo) return;
+        show(s.demo);
+        if (s.demo.state !== 'seeding') {
+          window.clearInterval(timer);
+          onDone();
+          window.setTimeout(() => banner.remove(), 8000);
+        }
+      },
+      () => {},
+    );
+  }, 3000);
 }
 
 void start();

@@ -31,7 +31,7 @@ export interface CombSearchOptions {
    * Rates whose harmonics belong to something else: every shaft of the machine (a once-per-revolution impact fills the
    * envelope with its shaft's comb) and the motor's line frequency (electrical forces and pick-up at its multiples).
    */
-  foreignRates: ReadonlyArray<{ rateHz: number; relativeUncertainty: number }>;
+  foreignRates: ReadonlyArray<ForeignRate>;
   /** Relative standard uncertainty of the speed (0 in the angle domain). */
   speedUncertaintyFraction: number;
   /** Largest relative departure of the defect rate from the kinematic one searched (slip). */
@@ -40,6 +40,16 @@ export interface CombSearchOptions {
   maxHarmonics: number;
   /** Lines weaker than this over the floor are not candidates at all (dB). */
   minLineSnrDb: number;
+}
+
+/**
+ * A rate whose harmonics belong to something else, each harmonic h·rate shifted by every one of `offsetsHz` (a gear
+ * mesh's lattice n·f₁ + m·f₂: offsets m·f₂), known to a relative standard uncertainty.
+ */
+export interface ForeignRate {
+  rateHz: number;
+  relativeUncertainty: number;
+  offsetsHz?: readonly number[];
 }
 
 export interface CombLine {
@@ -230,11 +240,9 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
   // lattice happens to touch.
   const own = slip === null ? new Uint8Array(n) : ownPeaks(comb, measured, slip, NEAR_SIDEBANDS, options);
   const ownWide = slip === null ? own : ownPeaks(comb, measured, slip, OWN_SIDEBANDS, options);
-  const harmonics: HarmonicContext[] = [];
-  for (let h = 1; h <= harmonicCount; h++) {
-    const c = Math.round((h * comb.defectHz) / df);
-    // ±max(50 bins, its frequency), widened until it holds NEIGHBOURHOOD_MIN_BINS bins that are neither the pattern's
-    // nor a foreign harmonic's (a strongly modulated pattern can own most of the bins near its first harmonics).
+  // ±max(50 bins, its frequency), widened until it holds NEIGHBOURHOOD_MIN_BINS bins that are neither the pattern's
+  // nor a foreign harmonic's (a strongly modulated pattern can own most of the bins near its first harmonics).
+  const localChanceModel = (c: number): ChanceModel => {
     let reach = Math.max(NEIGHBOURHOOD_MIN_BINS, c);
     let lo = Math.max(1, c - reach);
     let hi = Math.min(n - 2, c + reach);
@@ -255,7 +263,15 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
       if (!own[k] && !foreign[k]) neighbourhood.push(snrDb[k]!);
     }
     neighbourhood.sort((a, b) => b - a);
-    const chance = chanceModel({ peakSnrDb: neighbourhood, widthBins: width });
+    return chanceModel({ peakSnrDb: neighbourhood, widthBins: width });
+  };
+  const harmonics: HarmonicContext[] = [];
+  // The search (no slip yet) weighs every harmonic against the whole spectrum's peaks, computed once per spectrum: it
+  // only ranks bands and slips. The pattern found is weighed against each harmonic's own neighbourhood.
+  const searchModel = slip === null ? spectrumChanceModel(measured, foreign) : null;
+  for (let h = 1; h <= harmonicCount; h++) {
+    const c = Math.round((h * comb.defectHz) / df);
+    const chance = searchModel ?? localChanceModel(c);
     // Half a bin for where a tone falls, a bin for the slip grid and the peak's own spread, and three standard
     // uncertainties of the speed scaled to this harmonic.
     const toleranceHz = df + 3 * options.speedUncertaintyFraction * h * comb.defectHz;
@@ -269,8 +285,9 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
     for (let i = firstAtOrAbove(maxima, reachLo); i < maxima.length && maxima[i]! <= reachHi; i++) {
       const k = maxima[i]!;
       if (!eligible(k)) continue;
-      const p = peakAt(measured, k);
-      peaks.push({ bin: k, frequencyHz: p.frequencyHz, snrDb: snrDb[k]!, chance: chanceOfPeak(chance, snrDb[k]!, windowBins) });
+      // The search places peaks at their bins; the pattern found is placed at interpolated frequencies.
+      const frequencyHz = slip === null ? k * df : peakAt(measured, k).frequencyHz;
+      peaks.push({ bin: k, frequencyHz, snrDb: snrDb[k]!, chance: chanceOfPeak(chance, snrDb[k]!, windowBins) });
     }
     harmonics.push({
       harmonic: h,
@@ -321,9 +338,9 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
         out.counted++;
         let peak: CandidatePeak | null = null;
         if (best >= 0) {
-          const p = peakAt(measured, best);
-          if (Math.abs(p.frequencyHz - at) <= df * 1.1) {
-            peak = { bin: best, frequencyHz: p.frequencyHz, snrDb: snrDb[best]!, chance: Math.max(sidebandFloor, chanceOfPeak(harmonic.chance, snrDb[best]!, 2)) };
+          const frequencyHz = slip === null ? best * df : peakAt(measured, best).frequencyHz;
+          if (Math.abs(frequencyHz - at) <= df * 1.1) {
+            peak = { bin: best, frequencyHz, snrDb: snrDb[best]!, chance: Math.max(sidebandFloor, chanceOfPeak(harmonic.chance, snrDb[best]!, 2)) };
             out.chances.push(peak.chance);
           }
         }
@@ -335,6 +352,28 @@ function bandContext(comb: BearingComb, measured: MatchableSpectrum, harmonicCou
   };
   return { measured, harmonics, sidebandsOf };
 }
+
+/** The chance model of a whole spectrum's peaks off the foreign harmonics (memoized per spectrum and mask). */
+function spectrumChanceModel(measured: MatchableSpectrum, foreign: Uint8Array): ChanceModel {
+  let memo = spectrumModelMemo.get(measured);
+  if (!memo) {
+    memo = new WeakMap();
+    spectrumModelMemo.set(measured, memo);
+  }
+  const known = memo.get(foreign);
+  if (known) return known;
+  const n = measured.spectrum.values.length;
+  const peaks: number[] = [];
+  let width = 0;
+  for (let k = 1; k < n - 1; k++) if (!foreign[k]) width++;
+  for (const k of measured.maxima) if (!foreign[k]) peaks.push(measured.snrDb[k]!);
+  peaks.sort((a, b) => b - a);
+  const model = chanceModel({ peakSnrDb: peaks, widthBins: width });
+  memo.set(foreign, model);
+  return model;
+}
+
+const spectrumModelMemo = new WeakMap<MatchableSpectrum, WeakMap<Uint8Array, ChanceModel>>();
 
 /** The bins of the peaks on a comb's modulation lattice at a slip, with sidebands out to ±sidebands (see bandContext). */
 function ownPeaks(comb: BearingComb, measured: MatchableSpectrum, slip: number, sidebands: number, options: CombSearchOptions): Uint8Array {
@@ -396,8 +435,8 @@ function modulationRate(measured: MatchableSpectrum, rateHz: number, own: Uint8A
  * comb must; the first LOW_HARMONICS harmonics are the shaft's own lines wherever a peak stands on them. Rates so slow that their zones would cover a third of the axis cannot be told from anything by position:
  * their comb, if present, is clutter that the chance neighbourhoods weigh instead. Memoized per spectrum and rates.
  */
-function foreignHarmonicBins(measured: MatchableSpectrum, rates: ReadonlyArray<{ rateHz: number; relativeUncertainty: number }>): Uint8Array {
-  const key = rates.map((r) => `${r.rateHz}±${r.relativeUncertainty}`).join(',');
+function foreignHarmonicBins(measured: MatchableSpectrum, rates: ReadonlyArray<ForeignRate>): Uint8Array {
+  const key = rates.map((r) => `${r.rateHz}±${r.relativeUncertainty}+${(r.offsetsHz ?? [0]).join('/')}`).join(',');
   let memo = foreignMemo.get(measured);
   if (!memo) {
     memo = new Map();
@@ -417,29 +456,35 @@ function foreignHarmonicBins(measured: MatchableSpectrum, rates: ReadonlyArray<{
     }
   }
   const out = new Uint8Array(n);
-  for (const { rateHz, relativeUncertainty } of rates) {
+  for (const { rateHz, relativeUncertainty, offsetsHz } of rates) {
+    // A rate so slow that its harmonics' zones would cover a third of the axis cannot be told from anything by
+    // position: its comb, if present, is clutter that the chance neighbourhoods weigh instead.
     if (!(rateHz >= DENSE_RATE_FACTOR * 2 * SYNC_BINS * df)) continue;
-    const zones: Array<[number, number]> = [];
-    let carrying = 0;
-    let zoneBins = 0;
-    for (let h = 1; h * rateHz <= (n - 1) * df; h++) {
-      const c = (h * rateHz) / df;
-      const half = SYNC_BINS + (3 * relativeUncertainty * h * rateHz) / df;
-      const a = Math.max(0, Math.ceil(c - half));
-      const b = Math.min(n - 1, Math.floor(c + half));
-      zones.push([a, b]);
-      zoneBins += b - a + 1;
-      for (let k = a; k <= b; k++) if (isPeak[k]) { carrying++; break; }
+    for (const offset of offsetsHz ?? [0]) {
+      const zones: Array<[number, number]> = [];
+      let carrying = 0;
+      let zoneBins = 0;
+      for (let h = offset === 0 ? 1 : 0; h * rateHz + offset <= (n - 1) * df; h++) {
+        const f = h * rateHz + offset;
+        if (f <= 0) continue;
+        const c = f / df;
+        const half = SYNC_BINS + (3 * relativeUncertainty * (h * rateHz + Math.abs(offset))) / df;
+        const a = Math.max(0, Math.ceil(c - half));
+        const b = Math.min(n - 1, Math.floor(c + half));
+        zones.push([a, b]);
+        zoneBins += b - a + 1;
+        for (let k = a; k <= b; k++) if (isPeak[k]) { carrying++; break; }
+      }
+      if (zones.length === 0) continue;
+      const expected = Math.min(1, (peaks / n) * (zoneBins / zones.length));
+      const combShown = carrying / zones.length >= Math.max(MIN_COMB_SHARE, 2 * expected);
+      zones.forEach(([a, b], i) => {
+        // The first harmonics of a running shaft are its own lines wherever they carry a peak, comb or no comb.
+        let carries = false;
+        for (let k = a; k <= b && !carries; k++) if (isPeak[k]) carries = true;
+        if (combShown || (i < LOW_HARMONICS && carries)) for (let k = a; k <= b; k++) out[k] = 1;
+      });
     }
-    if (zones.length === 0) continue;
-    const expected = Math.min(1, (peaks / n) * (zoneBins / zones.length));
-    const combShown = carrying / zones.length >= Math.max(MIN_COMB_SHARE, 2 * expected);
-    zones.forEach(([a, b], i) => {
-      // The first harmonics of a running shaft are its own lines wherever they carry a peak, comb or no comb.
-      let carries = false;
-      for (let k = a; k <= b && !carries; k++) if (isPeak[k]) carries = true;
-      if (combShown || (i < LOW_HARMONICS && carries)) for (let k = a; k <= b; k++) out[k] = 1;
-    });
   }
   memo.set(key, out);
   return out;

@@ -33,16 +33,16 @@ export const faultDescriptors: Readonly<Record<FaultKind, FaultDescriptor>> = {
   'gear-missing-tooth': {
     kind: 'gear-missing-tooth', domain: 'spectrum', ownsRunningLines: false, evidence: 'chance', level: 'tooth-drop', cepstralSupport: true,
     prediction: { depthFraction: TOOTH_DROP_DEPTH['gear-missing-tooth'], rippleFraction: MESH_RIPPLE_FRACTION },
-    gates: ['more-than-one-line'],
+    gates: ['more-than-one-line', 'wide-sidebands', 'once-per-turn'],
   },
   'gear-broken-tooth': {
     kind: 'gear-broken-tooth', domain: 'spectrum', ownsRunningLines: false, evidence: 'chance', level: 'tooth-drop', cepstralSupport: true,
     prediction: { depthFraction: TOOTH_DROP_DEPTH['gear-broken-tooth'], rippleFraction: MESH_RIPPLE_FRACTION },
-    gates: ['more-than-one-line'],
+    gates: ['more-than-one-line', 'wide-sidebands', 'once-per-turn'],
   },
   'gear-wear': {
     kind: 'gear-wear', domain: 'spectrum', ownsRunningLines: true, evidence: 'presence', level: 'mesh-harmonics', cepstralSupport: false,
-    gates: ['more-than-one-line'],
+    gates: ['more-than-one-line', 'needs-baseline'],
   },
   'gear-eccentricity': {
     kind: 'gear-eccentricity', domain: 'spectrum', ownsRunningLines: false, evidence: 'chance', level: 'presence', cepstralSupport: true,

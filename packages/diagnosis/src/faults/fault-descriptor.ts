@@ -42,7 +42,13 @@ export type GateName =
   /** Looseness: many harmonics or half orders, not 1× and 2× alone. */
   | 'many-harmonics'
   /** A cage defect goes with damage of its bearing's races or rolling elements: alone, its comb is a modulation. */
-  | 'with-bearing-damage';
+  | 'with-bearing-damage'
+  /** Judged only against a baseline of the same point: the path from mesh to sensor sets mesh harmonic ratios. */
+  | 'needs-baseline'
+  /** A local tooth fault spreads its sidebands far from each mesh harmonic, not only ±1×, ±2× (runout does that). */
+  | 'wide-sidebands'
+  /** A local tooth fault strikes once per turn: its mesh's envelope is a comb of its shaft rate. */
+  | 'once-per-turn';
 
 /**
  * One home for a fault kind's judging: everything the diagnosis reads of a kind beyond the vocabulary facts of

@@ -9,6 +9,8 @@ export interface GateLine {
   measuredAmplitude: number | null;
   /** The line's frequency over its shaft's rate (1 for 1×, 0.5 for a half order); NaN when not a shaft order. */
   harmonic: number;
+  /** For a line near a mesh harmonic of the candidate's gear: its order of sideband (−3 for GMF − 3×), else null. */
+  sidebandOrder: number | null;
 }
 
 export interface GateContext {
@@ -17,6 +19,10 @@ export interface GateContext {
   /** Quantity of the spectrum the lines were read in (amplitude ratios become velocity ratios). */
   quantity: 'acceleration' | 'velocity' | 'displacement';
   /** Where the running speed came from, and the running lines that placed it when the spectrum did. */
+  /** A baseline of the point exists (an earlier analysis, or the model's healthy orders). */
+  hasBaseline: boolean;
+  /** Harmonics of the gear's shaft rate found in its mesh's envelope (null when the record cannot tell). */
+  oncePerTurn: () => number | null;
   speed: {
     source: 'tach' | 'encoder' | 'spectrum' | 'given' | null;
     /** Orders (of the reference shaft) of the running lines that placed the speed, when the spectrum did. */
@@ -37,6 +43,9 @@ export interface GateResult {
  * shown, but not 0, so that its evidence is still listed (and trends) for an engineer to read.
  */
 export const GATE_CLOSED_FACTOR = 0.4;
+
+/** Sidebands of order ≥ 3 that make a family wide (see 'wide-sidebands'). */
+const WIDE_SIDEBANDS = 4;
 
 /** Each gate of a fault descriptor: a requirement that the chance of the lines alone cannot express. */
 export const gates: Readonly<Record<GateName, (context: GateContext) => GateResult>> = {
@@ -89,6 +98,39 @@ export const gates: Readonly<Record<GateName, (context: GateContext) => GateResu
 
   /** Applied after the other bearing hypotheses are scored (see hypotheses.ts): here it always passes. */
   'with-bearing-damage': () => ({ factor: 1 }),
+
+  /**
+   * Tooth wear raises the mesh harmonics 2× and 3× against 1× (common practice), but between a mesh and a sensor lies a
+   * path the model does not know, which alone can put 2× over 1×: only the change against a baseline of the same point
+   * says wear. Without one the level is not judged and the hypothesis is not shown.
+   */
+  'needs-baseline': ({ hasBaseline }) => (hasBaseline ? { factor: 1 } : { factor: GATE_CLOSED_FACTOR, reason: 'tooth wear is judged only against a baseline of this point (mesh harmonic ratios depend on the path to the sensor)' }),
+
+  /**
+   * A local tooth fault (a missing, broken or cracked tooth) acts for one tooth's mesh per turn: a short event whose
+   * spectrum spreads over about half the tooth count in orders, so sidebands of the gear's shaft rate stand far out on
+   * both sides of each mesh harmonic. Runout and eccentricity, one cycle per turn, give only ±1× and ±2× (Randall,
+   * Vibration-based Condition Monitoring, 2011, ch. 2: local versus distributed faults, from memory). At least
+   * WIDE_SIDEBANDS found sidebands of order 3 or more count fully, one or none count nothing.
+   */
+  /**
+   * A local tooth fault strikes once per turn of its gear: the envelope of its mesh is impulsive at the shaft rate, a
+   * comb of many harmonics (Randall 2011, ch. 2 and 6: envelope and cepstrum at the faulty gear's rate, from memory),
+   * where a smooth runout gives 1× and 2×. Five or more of the first eight count fully, two or fewer nothing; a record
+   * that cannot tell (no band holds the mesh harmonics) leaves the score as it is.
+   */
+  'once-per-turn': ({ oncePerTurn }) => {
+    const n = oncePerTurn();
+    if (n === null) return { factor: 1 };
+    const factor = clamp01((n - 2) / 3);
+    return factor >= 1 ? { factor } : { factor, reason: `the envelope of its mesh shows only ${n} of 8 harmonics of its shaft rate (a local tooth fault strikes once per turn)` };
+  },
+
+  'wide-sidebands': ({ lines }) => {
+    const wide = lines.filter((l) => l.counted && l.matched && l.sidebandOrder !== null && Math.abs(l.sidebandOrder) >= 3).length;
+    const factor = clamp01((wide - 1) / (WIDE_SIDEBANDS - 1));
+    return factor >= 1 ? { factor } : { factor, reason: `only ${wide} sidebands of order 3 or more around its mesh were found (a local tooth fault spreads them far; runout gives ±1×, ±2×)` };
+  },
 };
 
 function strongestAt(lines: readonly GateLine[], harmonic: number): number | null {

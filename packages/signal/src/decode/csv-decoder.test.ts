@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { SignalInputError } from '../errors.js';
 import { decodeCsv, type CsvDecodeOptions } from './csv-decoder.js';
+import { recordingWarnings } from './recording-parts.js';
 
 const fixtures = new URL('../../../../fixtures/decode/', import.meta.url);
 interface Expected {
@@ -43,6 +44,36 @@ describe('decodeCsv', () => {
     const fromComments = decodeCsv(readFileSync(new URL('comments-fixed-semicolon.csv', fixtures), 'utf8'));
     expect(fromComments.channels.map((c) => c.unit)).toEqual(['mm/s', 'mm/s']);
     expect(fromComments.metadata).toMatchObject({ sampleRateHz: '2000', unit: 'mm/s', machine: 'feed pump 3', sourceFormat: 'csv' });
+  });
+
+  it('refuses a unit it does not know, from a header, a comment or the option, naming where and listing the accepted ones', () => {
+    const header = errorOf(() => decodeCsv('DE-H [gg],DE-V [g]\n1,2\n3,4\n', { sampleRateHz: 100 }));
+    expect(header.code).toBe('unknown_unit');
+    expect(header.where).toBe('line 1');
+    expect(header.message).toMatch(/^column 'DE-H': 'gg' is not a unit Kinespec knows \(did you mean 'g'\?\); accepted: g, m\/s\^2/);
+    const comment = errorOf(() => decodeCsv('# sampleRateHz=100\n# unit=furlongs\n1\n2\n'));
+    expect([comment.code, comment.where]).toEqual(['unknown_unit', 'line 2']);
+    expect(errorOf(() => decodeCsv('1\n2\n', { sampleRateHz: 100, unit: 'furlongs' })).code).toBe('unknown_unit');
+  });
+
+  it('writes units in their canonical spelling, and lets the unit option win over an unknown header unit with a warning', () => {
+    expect(decodeCsv('a [m/s2]\n1\n2\n', { sampleRateHz: 10 }).channels[0]!.unit).toBe('m/s^2');
+    const r = decodeCsv('a [gg]\n1\n2\n', { sampleRateHz: 10, unit: 'g' });
+    expect(r.channels[0]!.unit).toBe('g');
+    expect(r.metadata.warning).toBe("column 'a' says unit 'gg' but 'g' was used");
+    expect(decodeCsv('a [m/s2]\n1\n2\n', { sampleRateHz: 10, unit: 'm/s^2' }).metadata.warning).toBeUndefined();
+  });
+
+  it('warns about a mistyped comment key with the key it probably meant, and lists keys it keeps but does not read', () => {
+    const r = decodeCsv('# sampleRateHz=100\n# unti=g\n# operator=J. Ames\n# site=mill 2\n1\n2\n');
+    expect(r.channels[0]!.unit).toBe('unknown');
+    expect(r.metadata.warning).toBe(
+      "line 2: '# unti=' is not a key Kinespec reads (did you mean 'unit'?), kept as metadata only; " +
+        'comment keys kept as metadata only, not read by Kinespec: operator, site',
+    );
+    expect(r.metadata).toMatchObject({ unti: 'g', operator: 'J. Ames' });
+    expect(recordingWarnings(r.metadata)).toHaveLength(2);
+    expect(decodeCsv('# sample_rate=100\n# recorded_at=2025-01-01\n1\n2\n').metadata.warning).toBeUndefined();
   });
 
   it('reads a single column without header given the sample rate', () => {

@@ -2,7 +2,9 @@ import type { Recording } from '../recording.js';
 import { DecimalScanner } from './decimal-scanner.js';
 import { decodeError } from './decode-error.js';
 import { checkRecordingSize, resolveDecodeLimits, type DecodeLimits } from './decode-limits.js';
-import { addWarning, channelNames, checkSampleRate } from './recording-parts.js';
+import { canonicalChannelUnit, checkChannelUnit, UNSTATED_UNIT } from '../units/channel-units.js';
+import { decoderMetadataKeys, foldKey, isKnownMetadataKey, nearestMetadataKey } from './metadata-keys.js';
+import { addWarning, channelNames, checkSampleRate, optionUnit } from './recording-parts.js';
 import { inputBytes } from './text-input.js';
 
 export interface CsvDecodeOptions {
@@ -118,9 +120,13 @@ function detectSeparator(line: string): number {
 interface Comments {
   metadata: Record<string, string>;
   sampleRateHz?: { value: number; line: number };
-  units?: string[];
+  units?: { values: string[]; line: number };
   names?: string[];
+  /** `# key=value` keys Kinespec does not read, with their line */
+  unknownKeys: Array<{ key: string; line: number }>;
 }
+
+const isKey = (normal: string, key: keyof typeof decoderMetadataKeys) => decoderMetadataKeys[key].some((k) => foldKey(k) === normal);
 
 function listValue(value: string): string[] {
   return value
@@ -139,16 +145,32 @@ function readComment(body: string, line: number, comments: Comments): void {
   const key = body.slice(0, eq).trim();
   const value = body.slice(eq + 1).trim();
   comments.metadata[key] = value;
-  const normal = key.toLowerCase().replace(/[^a-z0-9]/g, '');
-  if (normal === 'sampleratehz' || normal === 'samplerate' || normal === 'fs' || normal === 'fshz') {
+  const normal = foldKey(key);
+  if (isKey(normal, 'sampleRateHz')) {
     const rate = value === '' ? NaN : Number(value);
     checkSampleRate(rate, `The '# ${key}=' comment on line ${line}`, `line ${line}`);
     comments.sampleRateHz = { value: rate, line };
-  } else if (normal === 'unit' || normal === 'units') {
-    comments.units = listValue(value);
-  } else if (normal === 'channels' || normal === 'channelnames' || normal === 'names') {
+  } else if (isKey(normal, 'unit')) {
+    comments.units = { values: listValue(value), line };
+  } else if (isKey(normal, 'channels')) {
     comments.names = listValue(value);
+  } else if (!isKnownMetadataKey(key)) {
+    comments.unknownKeys.push({ key, line });
   }
+}
+
+/**
+ * One warning per comment key that looks like a slip for a key Kinespec reads (`# unti=g` on line 3: did you
+ * mean 'unit'?), and one listing the other keys, which are kept as metadata but change nothing.
+ */
+function warnUnknownKeys(comments: Comments, metadata: Record<string, string>): void {
+  const free: string[] = [];
+  for (const { key, line } of comments.unknownKeys) {
+    const near = nearestMetadataKey(key);
+    if (near) addWarning(metadata, `line ${line}: '# ${key}=' is not a key Kinespec reads (did you mean '${near}'?), kept as metadata only`);
+    else free.push(key);
+  }
+  if (free.length) addWarning(metadata, `comment keys kept as metadata only, not read by Kinespec: ${free.join(', ')}`);
 }
 
 /**
@@ -170,7 +192,8 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
   // The rows are read as bytes: numbers are ASCII, and a 20 MB string would cost as much as parsing it.
   const bytes = inputBytes(input);
   const length = bytes.length;
-  const comments: Comments = { metadata: {} };
+  const unitOption = optionUnit(options.unit);
+  const comments: Comments = { metadata: {}, unknownKeys: [] };
 
   // Leading comment and blank lines, then the first content line (header or data).
   let pos = 0;
@@ -290,26 +313,29 @@ export function decodeCsv(input: string | Uint8Array, options: CsvDecodeOptions 
   const dataIndices = Array.from({ length: columnCount }, (_, i) => i).filter((i) => i !== timeIndex);
   const fileNames = headerCells ? dataIndices.map((i) => headerCells[i].name) : comments.names;
   if (!headerCells && comments.names && comments.names.length !== dataIndices.length) {
-    addWarning(metadata, `the channels comment names ${comments.names.length} channels but the file has ${dataIndices.length}; names ch1.. were used`);
+    addWarning(metadata, `the channels comment names ${comments.names.length} channels but the file has ${dataIndices.length}, so names ch1.. were used`);
   }
   const names = channelNames(dataIndices.length, options.channelNames, fileNames);
+  const commentUnits = comments.units?.values;
   const units = dataIndices.map((i, k) => {
-    const fromFile =
-      headerCells?.[i].unit ??
-      (comments.units?.length === 1
-        ? comments.units[0]
-        : comments.units?.length === dataIndices.length
-          ? comments.units[k]
-          : undefined);
-    if (options.unit === undefined) return fromFile ?? 'unknown';
-    if (fromFile !== undefined && fromFile !== options.unit) {
-      addWarning(metadata, `column '${names[k]}' says unit '${fromFile}' but '${options.unit}' was used`);
+    const fromHeader = headerCells?.[i].unit;
+    const fromComment =
+      commentUnits?.length === 1 ? commentUnits[0] : commentUnits?.length === dataIndices.length ? commentUnits[k] : undefined;
+    const fromFile = fromHeader ?? fromComment;
+    if (unitOption === undefined) {
+      if (fromFile === undefined) return UNSTATED_UNIT;
+      const where = fromHeader !== undefined ? `line ${firstLine}` : `line ${comments.units!.line}`;
+      return checkChannelUnit(fromFile, `column '${names[k]}'`, where);
     }
-    return options.unit;
+    if (fromFile !== undefined && canonicalChannelUnit(fromFile) !== unitOption) {
+      addWarning(metadata, `column '${names[k]}' says unit '${fromFile}' but '${unitOption}' was used`);
+    }
+    return unitOption;
   });
-  if (comments.units && comments.units.length !== 1 && comments.units.length !== dataIndices.length) {
-    addWarning(metadata, `the unit comment lists ${comments.units.length} units for ${dataIndices.length} channels and was not applied`);
+  if (commentUnits && commentUnits.length !== 1 && commentUnits.length !== dataIndices.length) {
+    addWarning(metadata, `the unit comment lists ${commentUnits.length} units for ${dataIndices.length} channels and was not applied`);
   }
+  warnUnknownKeys(comments, metadata);
   metadata.sourceFormat = 'csv';
   return {
     sampleRateHz,

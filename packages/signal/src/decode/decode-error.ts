@@ -25,6 +25,7 @@ export const decodeErrorDescriptions = {
   json_syntax: 'The input is not valid JSON.',
   json_schema: 'The JSON document does not have the recording shape.',
   raw_size_mismatch: 'The raw byte count is not a whole number of frames.',
+  unknown_unit: 'A unit given for the samples (option, header, comment or field) is not one Kinespec knows.',
 } as const satisfies Record<string, string>;
 
 export type DecodeErrorCode = keyof typeof decodeErrorDescriptions;

@@ -13,5 +13,16 @@ export {
   type RecordingFormat,
 } from './recording-decoder.js';
 export type { Sensitivity } from './sensitivity.js';
+export { recordingWarnings } from './recording-parts.js';
 export { defaultDecodeLimits, type DecodeLimits } from './decode-limits.js';
 export { decodeErrorCodes, decodeErrorDescriptions, type DecodeErrorCode } from './decode-error.js';
+export {
+  decoderMetadataKeys,
+  recordedAtMetadataKeys,
+  analysisMetadataKeys,
+  informationalMetadataKeys,
+  knownMetadataKeys,
+  isKnownMetadataKey,
+  nearestMetadataKey,
+  recordedAtFromMetadata,
+} from './metadata-keys.js';

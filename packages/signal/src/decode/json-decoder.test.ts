@@ -38,6 +38,15 @@ describe('decodeJsonRecording', () => {
     }
   });
 
+  it('refuses an unknown unit in the document or the option, with the JSON path and the accepted units', () => {
+    const top = errorOf(() => decodeJsonRecording({ sampleRateHz: 100, unit: 'furlongs', channels: [{ samples: [1, 2] }] }));
+    expect([top.code, top.where]).toEqual(['unknown_unit', '$.unit']);
+    expect(top.message).toMatch(/^channel 1 \('ch1'\): 'furlongs' is not a unit Kinespec knows; accepted: g, /);
+    const own = errorOf(() => decodeJsonRecording({ sampleRateHz: 100, channels: [{ samples: [1] }, { samples: [2], unit: 'gg' }] }));
+    expect([own.code, own.where]).toEqual(['unknown_unit', '$.channels[1].unit']);
+    expect(errorOf(() => decodeJsonRecording(doc, { unit: 'furlongs' })).code).toBe('unknown_unit');
+  });
+
   it('fills in names and units the document leaves out, and lets options override with a warning', () => {
     const r = decodeJsonRecording({ sampleRateHz: 100, channels: [{ samples: [1] }, { samples: [2] }] });
     expect(r.channels.map((c) => [c.name, c.unit])).toEqual([

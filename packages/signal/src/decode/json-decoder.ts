@@ -1,7 +1,8 @@
 import type { Channel, Recording } from '../recording.js';
 import { decodeError } from './decode-error.js';
 import { checkRecordingSize, resolveDecodeLimits, type DecodeLimits } from './decode-limits.js';
-import { addWarning, channelNames, checkSampleRate } from './recording-parts.js';
+import { canonicalChannelUnit, checkChannelUnit, UNSTATED_UNIT } from '../units/channel-units.js';
+import { addWarning, channelNames, checkSampleRate, optionUnit } from './recording-parts.js';
 import { inputText } from './text-input.js';
 
 export interface JsonDecodeOptions {
@@ -41,6 +42,7 @@ function metadataValue(value: unknown): string {
  */
 export function decodeJsonRecording(input: string | Uint8Array | object, options: JsonDecodeOptions = {}): Recording {
   const limits = resolveDecodeLimits(options.limits);
+  const unitOption = optionUnit(options.unit);
   let document: unknown = input;
   if (typeof input === 'string' || input instanceof Uint8Array) {
     const text = inputText(input);
@@ -118,10 +120,13 @@ export function decodeJsonRecording(input: string | Uint8Array | object, options
   metadata.sourceFormat = 'json';
   const out: Channel[] = parsed.map((p, c) => {
     const fileUnit = p.unit ?? (unit as string | undefined);
-    if (options.unit !== undefined && fileUnit !== undefined && fileUnit !== options.unit) {
-      addWarning(metadata, `channel '${names[c]}' says unit '${fileUnit}' but '${options.unit}' was used`);
+    if (unitOption !== undefined) {
+      if (fileUnit !== undefined && canonicalChannelUnit(fileUnit) !== unitOption) addWarning(metadata, `channel '${names[c]}' says unit '${fileUnit}' but '${unitOption}' was used`);
+      return { name: names[c], unit: unitOption, samples: p.samples };
     }
-    return { name: names[c], unit: options.unit ?? fileUnit ?? 'unknown', samples: p.samples };
+    if (fileUnit === undefined) return { name: names[c], unit: UNSTATED_UNIT, samples: p.samples };
+    const path = p.unit !== undefined ? `$.channels[${c}].unit` : '$.unit';
+    return { name: names[c], unit: checkChannelUnit(fileUnit, `channel ${c + 1} ('${names[c]}')`, path), samples: p.samples };
   });
   return { sampleRateHz: rate as number, channels: out, metadata };
 }

@@ -65,4 +65,9 @@ describe('decodeRaw', () => {
       { numRuns: 1000 },
     );
   });
+  it('refuses a unit it does not know', () => {
+    const bytes = new Uint8Array(new Float32Array([1, 2]).buffer);
+    expect(codeOf(() => decodeRaw(bytes, { format: 'float32', sampleRateHz: 100, unit: 'furlongs' }))).toBe('unknown_unit');
+    expect(decodeRaw(bytes, { format: 'float32', sampleRateHz: 100, unit: 'ips' }).channels[0]!.unit).toBe('in/s');
+  });
 });

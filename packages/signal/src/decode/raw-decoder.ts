@@ -1,7 +1,8 @@
 import type { Recording } from '../recording.js';
 import { decodeError } from './decode-error.js';
 import { checkRecordingSize, resolveDecodeLimits, type DecodeLimits } from './decode-limits.js';
-import { channelNames, checkSampleRate, firstNonFinite, hostIsLittleEndian } from './recording-parts.js';
+import { UNSTATED_UNIT } from '../units/channel-units.js';
+import { channelNames, checkSampleRate, firstNonFinite, hostIsLittleEndian, optionUnit } from './recording-parts.js';
 
 export interface RawDecodeOptions {
   /** Sample encoding: little-endian IEEE float. */
@@ -44,7 +45,7 @@ export function decodeRaw(bytes: Uint8Array, options: RawDecodeOptions): Recordi
   const frameCount = bytes.length / frameBytes;
   checkRecordingSize(channelCount, frameCount, limits);
   const names = channelNames(channelCount, options.channelNames);
-  const unit = options.unit ?? 'unknown';
+  const unit = optionUnit(options.unit) ?? UNSTATED_UNIT;
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   // Aligned data is read through a typed view over the bytes; unaligned data (a Node Buffer cut from the
   // shared pool can start anywhere) through the DataView, which costs less than copying it into alignment.

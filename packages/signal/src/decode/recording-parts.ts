@@ -1,8 +1,25 @@
+import { checkChannelUnit } from '../units/channel-units.js';
 import { decodeError } from './decode-error.js';
+
+/** The caller's `unit` option in its canonical spelling; an unknown unit is refused ('unknown_unit'). */
+export function optionUnit(unit: string | undefined): string | undefined {
+  if (unit === undefined) return undefined;
+  if (typeof unit !== 'string') throw decodeError('option_invalid', `unit (${String(unit)}) must be a string such as 'g'.`);
+  return checkChannelUnit(unit, 'unit');
+}
+
+/** Between two warnings in `metadata.warning` (metadata values are strings, so the list is joined). */
+const WARNING_SEPARATOR = '; ';
 
 /** Appends a warning to `metadata.warning`; decoders warn instead of failing when the data is still sound. */
 export function addWarning(metadata: Record<string, string>, text: string): void {
-  metadata.warning = metadata.warning ? `${metadata.warning}; ${text}` : text;
+  metadata.warning = metadata.warning ? `${metadata.warning}${WARNING_SEPARATOR}${text}` : text;
+}
+
+/** The decoder's warnings of a recording, one string each (none when `metadata.warning` is absent). */
+export function recordingWarnings(metadata: Readonly<Record<string, string>> | null | undefined): string[] {
+  const text = metadata?.warning;
+  return text ? text.split(WARNING_SEPARATOR).filter((w) => w !== '') : [];
 }
 
 /** Channel names from an option, else from the file, else ch1, ch2, ... */

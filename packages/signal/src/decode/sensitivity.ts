@@ -1,3 +1,4 @@
+import { checkChannelUnit, UNSTATED_UNIT } from '../units/channel-units.js';
 import { decodeError } from './decode-error.js';
 
 /**
@@ -50,7 +51,7 @@ export function channelScales(
   options: { fullScaleVolts?: number; unit?: string },
 ): ChannelScale[] {
   if (sensitivity === undefined) {
-    const unit = digital.float ? (options.unit ?? 'unknown') : 'FS';
+    const unit = digital.float ? (options.unit ?? UNSTATED_UNIT) : 'FS';
     return Array.from({ length: channelCount }, () => ({ factor: 1, unit }));
   }
   const list: readonly Sensitivity[] = Array.isArray(sensitivity)
@@ -66,10 +67,11 @@ export function channelScales(
     if (s === null || typeof s !== 'object') {
       throw decodeError('sensitivity_invalid', `sensitivity for channel ${channel + 1} must be an object.`);
     }
-    const unit = (s as { unit?: unknown }).unit;
-    if (typeof unit !== 'string' || unit.trim() === '') {
+    const given = (s as { unit?: unknown }).unit;
+    if (typeof given !== 'string' || given.trim() === '') {
       throw decodeError('sensitivity_invalid', `sensitivity.unit for channel ${channel + 1} must name the unit, e.g. 'g'.`);
     }
+    const unit = checkChannelUnit(given, `sensitivity.unit for channel ${channel + 1}`);
     if ('mvPerUnit' in s) {
       const mvPerUnit = positive(s.mvPerUnit, 'mvPerUnit', channel);
       const volts = s.fullScaleVolts ?? options.fullScaleVolts;

@@ -10,7 +10,7 @@ const fixture = (name: string) => new Uint8Array(readFileSync(new URL(name, fixt
 const hex = (text: string) => Uint8Array.from(text.trim().split(/\s+/), (h) => parseInt(h, 16));
 
 // Reference files from scipy.io.wavfile.write, 8000 Hz mono, samples [0, 1, -1, 2]
-// (../shared/design/check-values.md §11, output of reference-scripts/tsa_wav.py).
+// (docs/check-values.md §11, the bytes scipy.io.wavfile.write gives).
 const scipyInt16 = hex(
   '52 49 46 46 2c 00 00 00 57 41 56 45 66 6d 74 20 10 00 00 00 01 00 01 00 40 1f 00 00 80 3e 00 00 02 00 10 00 64 61 74 61 08 00 00 00 00 00 01 00 ff ff 02 00',
 );
@@ -189,6 +189,13 @@ describe('decodeWav', () => {
     expect(codeOf(() => decodeWav(stereo, { sensitivity: { mvPerUnit: 100, unit: 'g' } }))).toBe('sensitivity_invalid');
     expect(codeOf(() => decodeWav(stereo, { sensitivity: { mvPerUnit: -1, fullScaleVolts: 5, unit: 'g' } }))).toBe('sensitivity_invalid');
     expect(codeOf(() => decodeWav(stereo, { sensitivity: { fullScaleUnits: 5, unit: '' } }))).toBe('sensitivity_invalid');
+  });
+
+  it('refuses an unknown unit as an option or in a sensitivity, even where PCM would not apply it', () => {
+    expect(codeOf(() => decodeWav(scipyInt16, { unit: 'furlongs' }))).toBe('unknown_unit');
+    expect(codeOf(() => decodeWav(scipyFloat32, { unit: 'gg' }))).toBe('unknown_unit');
+    expect(codeOf(() => decodeWav(scipyInt16, { sensitivity: { fullScaleUnits: 50, unit: 'furlongs' } }))).toBe('unknown_unit');
+    expect(decodeWav(scipyFloat32, { unit: 'm/s2' }).channels[0]!.unit).toBe('m/s^2');
   });
 
   it('warns that a unit without a sensitivity is not applied to PCM', () => {

@@ -1,7 +1,7 @@
 import type { Recording } from '../recording.js';
 import { decodeError } from './decode-error.js';
 import { checkRecordingSize, resolveDecodeLimits, type DecodeLimits } from './decode-limits.js';
-import { addWarning, channelNames, firstNonFinite, hostIsLittleEndian } from './recording-parts.js';
+import { addWarning, channelNames, firstNonFinite, hostIsLittleEndian, optionUnit } from './recording-parts.js';
 import { channelScales, type Sensitivity } from './sensitivity.js';
 import {
   EXTENSIBLE_FMT_SIZE,
@@ -174,6 +174,7 @@ function readInfoList(bytes: Uint8Array, view: DataView, body: number, size: num
 export function decodeWav(bytes: Uint8Array, options: WavDecodeOptions = {}): Recording {
   if (!(bytes instanceof Uint8Array)) throw decodeError('option_invalid', 'decodeWav expects the file as a Uint8Array.');
   const limits = resolveDecodeLimits(options.limits);
+  const unit = optionUnit(options.unit);
   const length = bytes.length;
   if (length === 0) throw decodeError('empty_input', 'The WAV file is empty (0 bytes).');
   const magic = fourCC(bytes, 0);
@@ -209,7 +210,7 @@ export function decodeWav(bytes: Uint8Array, options: WavDecodeOptions = {}): Re
         if (size > available) {
           addWarning(
             metadata,
-            `the data chunk declares ${size} bytes but the file holds ${available} after its header; the complete frames present were decoded`,
+            `the data chunk declares ${size} bytes but the file holds ${available} after its header, so only the complete frames present were decoded`,
           );
           break;
         }
@@ -257,9 +258,9 @@ export function decodeWav(bytes: Uint8Array, options: WavDecodeOptions = {}): Re
   checkRecordingSize(format.channelCount, frameCount, limits, `byte ${dataOffset - 8}`);
 
   const float = format.sampleFormat === 'float32' || format.sampleFormat === 'float64';
-  const scales = channelScales(options.sensitivity, format.channelCount, { float, validBits: format.validBits }, options);
-  if (!float && options.unit !== undefined && options.sensitivity === undefined) {
-    addWarning(metadata, `unit '${options.unit}' was not applied: PCM data without a sensitivity is given in full-scale units (FS)`);
+  const scales = channelScales(options.sensitivity, format.channelCount, { float, validBits: format.validBits }, { fullScaleVolts: options.fullScaleVolts, unit });
+  if (!float && unit !== undefined && options.sensitivity === undefined) {
+    addWarning(metadata, `unit '${unit}' was not applied: PCM data without a sensitivity is given in full-scale units (FS)`);
   }
   const names = channelNames(format.channelCount, options.channelNames);
   const factors = scales.map((s) => s.factor);

@@ -4,7 +4,7 @@ import { reference, slice } from '../../../../fixtures/spectra/welch-reference.j
 import { SignalInputError } from '../errors.js';
 import { analyticSignal, envelopeSpectrum, fftBandPass, hilbertEnvelope } from './envelope.js';
 
-// check-values.md section 9 (reference-scripts/envelope.py): x = (1 + m cos 2 pi fm t) cos 2 pi fc t
+// docs/check-values.md section 9 (computed with scipy.signal.hilbert): x = (1 + m cos 2 pi fm t) cos 2 pi fc t
 const FS = 8192;
 const N = 8192;
 const FC = 1024;

@@ -19,3 +19,13 @@ export {
   type IntegrationOptions,
 } from './frequency-integration.js';
 export { unitErrorDescriptions, type UnitErrorCode } from './unit-error.js';
+export {
+  SIGNAL_UNITS,
+  UNSTATED_UNIT,
+  ACCEPTED_UNITS,
+  acceptedUnitsText,
+  canonicalChannelUnit,
+  checkChannelUnit,
+  type SignalUnit,
+} from './channel-units.js';
+export { editDistance, nearestName } from './nearest-name.js';

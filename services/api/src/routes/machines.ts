@@ -1,10 +1,10 @@
 import { parseMachineModel } from '@kinespec/kinematics';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import { levelPointOfRow, levelsOf } from '../alarms.js';
 import type { Services } from '../app.js';
 import { FORECAST_HISTORY_MS, forecastTrend, levelsToForecast, soonest } from '../forecasts.js';
 import { MAIN_INDICATOR } from '../indicators.js';
+import { levelsAt, pointLevels, type PointLevels } from '../point-levels.js';
 import { parseModelText, storeMachineModel } from '../machine-models.js';
 import { problem } from '../problems.js';
 import { awaitReanalysis, startReanalysis } from '../reanalysis.js';
@@ -67,12 +67,12 @@ const machineSummarySchema = z.object({
 });
 
 /** The soonest crossing foreseen for the main indicator over a machine's points (the fleet's column), or null. */
-function soonestCrossing(points: readonly PointRow[], series: Map<number, Array<{ recordedAt: Date; value: number }>>) {
+function soonestCrossing(points: readonly PointRow[], series: Map<number, Array<{ recordedAt: Date; value: number }>>, levels: Map<number, PointLevels>) {
   let best: { point: PointRow; f: NonNullable<ReturnType<typeof soonest>> } | null = null;
   for (const point of points) {
     const values = series.get(point.id);
     if (!values) continue;
-    const f = soonest(forecastTrend(values, levelsToForecast(MAIN_INDICATOR, levelPointOfRow(point), null)));
+    const f = soonest(forecastTrend(values, levelsToForecast(MAIN_INDICATOR, levelsAt(point, levels.get(point.id), MAIN_INDICATOR), null)));
     if (f && (best === null || f.remainingS! < best.f.remainingS!)) best = { point, f };
   }
   if (!best) return null;
@@ -125,7 +125,9 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
       listSitePoints(sql, siteId),
       siteSeries(sql, { siteId, indicator: MAIN_INDICATOR, from: new Date(now.getTime() - FORECAST_HISTORY_MS), to: now }),
     ]);
-    const soonestOf = (machineId: number) => soonestCrossing(points.filter((p) => p.machineId === machineId), series);
+    // the levels each point's newest analysis graded with, for the points with a series to forecast
+    const levels = await pointLevels(services, points.filter((p) => series.has(p.id)), now);
+    const soonestOf = (machineId: number) => soonestCrossing(points.filter((p) => p.machineId === machineId), series, levels);
     return machines.map((m) => {
       const mine = latest.filter((l) => l.machineId === m.id);
       const zones = mine.map((l) => l.zone).filter((z): z is 'A' | 'B' | 'C' | 'D' => z !== null);
@@ -175,6 +177,8 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
       listModelVersions(sql, machine.id),
       machine.currentModelVersion === null ? null : getModelVersion(sql, machine.id, machine.currentModelVersion),
     ]);
+    // each point's alarm and trip levels as its newest analysis graded them (the registry's before any analysis)
+    const levels = await pointLevels(services, points, new Date(Date.now() + 1));
     return {
       id: machine.machineKey,
       name: machine.name,
@@ -182,7 +186,7 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
       model: model?.model ?? null,
       modelVersions: versions.map((v) => ({ version: v.version, validFrom: iso(v.validFrom), createdAt: iso(v.createdAt) })),
       points: points.map((p) => {
-        const levels = levelsOf(p, MAIN_INDICATOR);
+        const main = levelsAt(p, levels.get(p.id), MAIN_INDICATOR);
         return {
           id: p.pointKey,
           quantity: p.quantity,
@@ -190,8 +194,8 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
           near: optional(p.near),
           shaft: optional(p.shaft),
           direction: optional(p.direction),
-          alarmLevel: levels.alarmLevel,
-          tripLevel: levels.tripLevel,
+          alarmLevel: main.alarmLevel,
+          tripLevel: main.tripLevel,
         };
       }),
     };

@@ -1,5 +1,5 @@
 import fastifyMultipart from '@fastify/multipart';
-import { detectRecordingFormat, SignalInputError, type DecodeHint } from '@kinespec/signal';
+import { detectRecordingFormat, recordingWarnings, SignalInputError, type DecodeHint } from '@kinespec/signal';
 import type { FastifyRequest } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
@@ -87,6 +87,7 @@ const uploadQuery = z.object({
   recordedAt: isoTime.optional().describe('When the recording was taken (default: the file metadata, else now)'),
   speedRpm: z.coerce.number().positive().finite().optional().describe('Speed of the reference shaft, when known'),
   filename: z.string().max(255).optional(),
+  channel: z.string().min(1).max(100).optional().describe('The channel to analyse: a number from 1 or a channel name (default: the first vibration channel)'),
 });
 
 type UploadParams = z.infer<typeof uploadQuery>;
@@ -99,6 +100,7 @@ const HEADER_FIELDS: Array<[keyof UploadParams, string]> = [
   ['recordedAt', 'x-recorded-at'],
   ['speedRpm', 'x-speed-rpm'],
   ['filename', 'x-filename'],
+  ['channel', 'x-channel'],
 ];
 
 /** Header values (X-Sample-Rate-Hz ...) fill what the query leaves out; both are checked by the same schema. */
@@ -144,6 +146,7 @@ const recordingMetaSchema = z.object({
   metadata: z.record(z.string(), z.string()),
   /** When KINESPEC_SAMPLE_RETENTION_DAYS dropped the raw samples; null while they are kept. */
   samplesPurgedAt: z.string().nullable(),
+  warnings: z.array(z.string()).describe("The decoder's warnings about the file (metadata.warning, one entry each)"),
 });
 
 export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = async (app, { services }) => {
@@ -227,7 +230,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       ...(q.filename ?? filename ? { filename: q.filename ?? filename } : {}),
       ...(q.sampleRateHz !== undefined ? { sampleRateHz: q.sampleRateHz } : {}),
       ...(q.channels !== undefined ? { channels: q.channels } : {}),
-      // an explicit unit overrides the file's; the point's unit only fills in where the file names none
+      // an explicit unit overrides the file's; where neither names one, the analysis reads the point's unit and warns
       ...(q.unit ? { unit: q.unit } : {}),
     };
     let sourceFormat = 'unknown';
@@ -248,7 +251,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       idempotencyKey,
       recordedAt,
       speedRpm: q.speedRpm ?? null,
-      defaultUnit: point.unit,
+      channel: q.channel ?? null,
     }, preferredWaitMs(request.headers['prefer'], services.config.uploadWaitMs ?? 5_000));
     services.metrics.uploads.inc({ outcome: result.body.duplicate ? 'duplicate' : 'stored' });
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
@@ -333,6 +336,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       speedRpm: r.speedRpm,
       metadata: r.metadata,
       samplesPurgedAt: iso(r.samplesPurgedAt),
+      warnings: recordingWarnings(r.metadata),
     };
   });
 

@@ -6,6 +6,7 @@ import { simulateRecording } from '@kinespec/simulator';
 import { describe, expect, it } from 'vitest';
 import type { CliIo } from '../io.js';
 import { main } from '../main.js';
+import { speedSourceText } from './diagnose.js';
 
 function capture(): CliIo & { stdout: string[]; stderr: string[] } {
   const stdout: string[] = [];
@@ -38,7 +39,7 @@ describe('diagnose verb', () => {
     const text = io.stdout.join('\n');
     expect(text).toMatch(/speed: 146\d\.\d rpm .* from the spectrum/);
     expect(text).toMatch(/overall: \d+\.\d\d mm\/s RMS \(10–1000 Hz\), ISO 20816-3 zone [ABCD]/);
-    expect(text).toMatch(/faults shown \(score >= 0\.5\):\n {2}0\.\d\d {2}bearing-outer-race in input-de: The recording shows an outer-race defect/);
+    expect(text).toMatch(/faults shown \(score >= 0\.5\):\n {2}[01]\.\d\d {2}bearing-outer-race in input-de: The recording shows an outer-race defect/);
     expect(text).toMatch(/next:/);
   });
 
@@ -63,12 +64,23 @@ describe('diagnose verb', () => {
       ['diagnose', join(dir, 'missing.csv'), '--machine', machinePath],
       ['diagnose', csvPath, '--machine', machinePath, '--speed-rpm', '-5'],
       ['diagnose', csvPath, '--machine', machinePath, '--channel', '7'],
-      ['diagnose', csvPath, '--machine', machinePath, '--sample-rate=0'],
+      ['diagnose', csvPath, '--machine', machinePath, '--sample-rate-hz=0'],
+      ['diagnose', csvPath, '--machine', machinePath, '--unit', 'furlongs'],
+      ['diagnose', csvPath, '--machine', machinePath, '--sample-rate', '1000'],
     ]) {
       const io = capture();
       expect(await main(args, io)).toBe(2);
       expect(io.stderr).toHaveLength(1);
       expect(io.stderr[0]).toMatch(/^kinespec diagnose: /);
     }
+  });
+});
+
+describe('speedSourceText', () => {
+  it("tells the model's nominal speed from a speed the user gave, both of which the analysis calls 'given'", () => {
+    expect(speedSourceText('given', false)).toBe("the model's nominal speed (not found in the spectrum)");
+    expect(speedSourceText('given', true)).toBe('the value given (not found in the spectrum)');
+    expect(speedSourceText('spectrum', true)).toBe('the spectrum');
+    expect(speedSourceText('tach', false)).toBe('the tach');
   });
 });

@@ -1,16 +1,25 @@
 import { basename } from 'node:path';
 import { analyseRecording, DiagnosisInputError, type RecordingAnalysis } from '@kinespec/diagnosis';
-import { SignalInputError } from '@kinespec/signal';
+import { recordingWarnings, SignalInputError } from '@kinespec/signal';
 import { CliError } from '../cli-error.js';
 import { parseFlags, positiveNumber, wholeNumber } from '../flags.js';
 import type { CliIo } from '../io.js';
 import { loadMachineFile } from '../machine-file.js';
-import { channelIndex, decoderHint, loadRecordingFile, recordingFileArgument, withFileNameOnInputErrors } from '../recording-file.js';
+import { channelIndex, decoderHint, loadRecordingFile, recordingFileArgument, withFileNameOnInputErrors, recordingHintFlags } from '../recording-file.js';
 import type { Verb } from '../verb.js';
 
 const USAGE =
   'kinespec diagnose <recording> --machine <machine.json> [--point id] [--channel N|name] [--tach-channel N|name] ' +
-  '[--pulses-per-rev N] [--speed-rpm N] [--sample-rate Hz] [--unit g] [--json]';
+  '[--pulses-per-rev N] [--speed-rpm N] [--sample-rate-hz F] [--unit g] [--json]';
+
+/**
+ * Where the speed came from, in words. The analysis reports 'given' both for a speed the user gave and for the
+ * model's nominal speed it fell back to when the spectrum did not show the running lines; the caller knows which.
+ */
+export function speedSourceText(source: RecordingAnalysis['speedSource'], speedGiven: boolean): string {
+  if (source === 'given') return speedGiven ? 'the value given (not found in the spectrum)' : "the model's nominal speed (not found in the spectrum)";
+  return source === 'spectrum' ? 'the spectrum' : `the ${source ?? 'model'}`;
+}
 
 /** Hypotheses printed after the ones the recording shows. */
 const NEXT_COUNT = 3;
@@ -20,12 +29,15 @@ function fmt(x: number, digits = 2): string {
 }
 
 /** The human summary: speed, overall level and zone, the faults shown with their reasons, then the next three. */
-export function formatDiagnosis(analysis: RecordingAnalysis, context: { file: string; machine: string }): string {
+export function formatDiagnosis(
+  analysis: RecordingAnalysis,
+  context: { file: string; machine: string; speedGiven?: boolean; fileWarnings?: readonly string[] },
+): string {
   const lines: string[] = [];
   lines.push(`${context.file}: machine '${context.machine}', point '${analysis.pointId ?? '-'}', ${analysis.domain === 'angle' ? 'angle (order-tracked)' : 'frequency'} domain`);
   if (analysis.speedHz !== null) {
     const unc = analysis.speedUncertaintyHz !== undefined ? ` ± ${fmt(analysis.speedUncertaintyHz * 60, 1)} rpm` : '';
-    lines.push(`speed: ${fmt(analysis.speedHz * 60, 1)} rpm (${fmt(analysis.speedHz, 3)} Hz)${unc}, from ${analysis.speedSource === 'given' ? 'the value given' : `the ${analysis.speedSource}`}`);
+    lines.push(`speed: ${fmt(analysis.speedHz * 60, 1)} rpm (${fmt(analysis.speedHz, 3)} Hz)${unc}, from ${speedSourceText(analysis.speedSource, context.speedGiven ?? false)}`);
   } else {
     lines.push('speed: unknown');
   }
@@ -46,6 +58,7 @@ export function formatDiagnosis(analysis: RecordingAnalysis, context: { file: st
   if (analysis.unexplainedPeaks.length > 0) {
     lines.push(`unexplained peaks: ${analysis.unexplainedPeaks.slice(0, 5).map((p) => `${fmt(p.frequencyHz, 1)} Hz (${fmt(p.snrDb, 0)} dB)`).join(', ')}`);
   }
+  for (const w of context.fileWarnings ?? []) lines.push(`note: file: ${w}`);
   for (const w of analysis.warnings) lines.push(`note: ${w}`);
   lines.push('A score supports, and never replaces, the judgement of a qualified engineer on site.');
   return lines.join('\n');
@@ -65,8 +78,7 @@ export const diagnoseVerb: Verb = {
         'tach-channel': { type: 'string' },
         'pulses-per-rev': { type: 'string' },
         'speed-rpm': { type: 'string' },
-        'sample-rate': { type: 'string' },
-        unit: { type: 'string' },
+        ...recordingHintFlags,
         json: { type: 'boolean' },
       },
       USAGE,
@@ -75,12 +87,14 @@ export const diagnoseVerb: Verb = {
     if (v.machine === undefined) throw new CliError(`--machine <machine.json> is required (usage: ${USAGE})`);
     const speedRpm = positiveNumber('speed-rpm', v['speed-rpm']);
     const pulsesPerRev = wholeNumber('pulses-per-rev', v['pulses-per-rev'], 1);
-    const hint = decoderHint(v['sample-rate'], v.unit);
+    const hint = decoderHint(v['sample-rate-hz'], v.unit);
     const model = loadMachineFile(v.machine, io);
+    let fileWarnings: string[] = [];
     const analysis = withFileNameOnInputErrors(
       file,
       () => {
         const recording = loadRecordingFile(file, hint);
+        fileWarnings = recordingWarnings(recording.metadata);
         // the CLI takes names or 1-based numbers; analyseRecording takes 0-based indices
         const channel = v.channel === undefined ? undefined : channelIndex(recording, v.channel, 'channel');
         const tachChannel = v['tach-channel'] === undefined ? undefined : channelIndex(recording, v['tach-channel'], 'tach-channel');
@@ -95,7 +109,7 @@ export const diagnoseVerb: Verb = {
       },
       [SignalInputError, DiagnosisInputError],
     );
-    io.out(v.json ? JSON.stringify(analysis, null, 2) : formatDiagnosis(analysis, { file: basename(file), machine: model.id }));
+    io.out(v.json ? JSON.stringify({ ...analysis, fileWarnings }, null, 2) : formatDiagnosis(analysis, { file: basename(file), machine: model.id, speedGiven: speedRpm !== undefined, fileWarnings }));
     return 0;
   },
 };

@@ -19,14 +19,14 @@ import {
 import { CliError } from '../cli-error.js';
 import { oneOf, parseFlags, positiveNumber, wholeNumber } from '../flags.js';
 import { loadMachineFile } from '../machine-file.js';
-import { decoderHint, loadRecordingFile, recordingFileArgument, selectChannel, withFileNameOnInputErrors, type DecoderHint } from '../recording-file.js';
+import { decoderHint, loadRecordingFile, recordingFileArgument, selectChannel, withFileNameOnInputErrors, type DecoderHint, recordingHintFlags } from '../recording-file.js';
 import { significant } from '../significant-figures.js';
 import type { Verb } from '../verb.js';
 
 const USAGE =
   'kinespec orders <recording> --machine <machine.json> --tach-channel N|name [--channel N|name] [--shaft id] ' +
   '[--pulses-per-rev P] [--pulse-shaft id] [--max-order K] [--samples-per-rev S] [--scaling peak|rms|psd] ' +
-  '[--interpolation sinc|cubic|linear] [--tsa] [--sample-rate Hz] [--unit g] [--json]';
+  '[--interpolation sinc|cubic|linear] [--tsa] [--sample-rate-hz F] [--unit g] [--json]';
 
 const SCALINGS = ['peak', 'rms', 'psd'] as const;
 const INTERPOLATIONS = ['sinc', 'cubic', 'linear'] as const;
@@ -90,8 +90,7 @@ function parseSettings(args: string[]): { file: string; settings: OrdersSettings
       scaling: { type: 'string' },
       interpolation: { type: 'string' },
       tsa: { type: 'boolean' },
-      'sample-rate': { type: 'string' },
-      unit: { type: 'string' },
+      ...recordingHintFlags,
       json: { type: 'boolean' },
     },
     USAGE,
@@ -111,7 +110,7 @@ function parseSettings(args: string[]): { file: string; settings: OrdersSettings
     interpolation: oneOf('interpolation', v.interpolation, INTERPOLATIONS, 'sinc'),
     tsa: v.tsa === true,
   };
-  return { file, settings, json: v.json === true, hint: decoderHint(v['sample-rate'], v.unit) };
+  return { file, settings, json: v.json === true, hint: decoderHint(v['sample-rate-hz'], v.unit) };
 }
 
 /**

@@ -95,8 +95,55 @@ describe('spectrum verb', () => {
     const r = await run(wavPath, '--unit', 'g');
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/overall: 0\.72\d* g rms \(0-12800 Hz\); velocity 11\.0\d* mm\/s rms \(10-1000 Hz\)/);
-    expect(r.out).toMatch(/top peaks \(g rms\):\n\s+100 Hz\s+0\.7071/);
-    expect(r.out).toMatch(/1234 Hz\s+0\.1414/);
+    // peaks above the window's skirt around 0 Hz (2 bins of 3.125 Hz), each to a tenth of a bin: one decimal
+    expect(r.out).toMatch(/top peaks in 6\.25-12800 Hz \(g rms\):\n\s+100\.0 Hz\s+0\.7071/);
+    expect(r.out).toMatch(/\n\s+1234\.0 Hz\s+0\.1414/);
+  });
+
+  it('gives a peak frequency to a tenth of a bin: two decimals at 0.39 Hz resolution (the interpolated peak is good to a few hundredths of a bin)', async () => {
+    const r = await run(wavPath, '--unit', 'g', '--segment', '65536');
+    expect(r.out).toMatch(/resolution 0\.3906 Hz/);
+    expect(r.out).toMatch(/\n\s+100\.00 Hz\s+0\.707/);
+    expect(r.out).not.toMatch(/100\.00\d Hz/);
+  });
+
+  it('looks for the peaks of a spectrum integrated to velocity only in its overall band, not in the 1/f rise near 0 Hz', async () => {
+    // a slow drift (0.3 Hz, the kind a loose cable or a temperature change gives) integrates to a huge velocity near 0 Hz
+    const drifting = accel.map((v, i) => v + 0.05 * Math.sin((2 * Math.PI * 0.3 * i) / FS));
+    const path = join(dir, 'p2-drift.wav');
+    writeFileSync(path, floatWav(drifting, FS));
+    const r = await runJson(path, '--unit', 'g', '--quantity', 'velocity');
+    expect(r.peakBandHz).toEqual([10, 1000]);
+    expect(Math.abs(r.peaks[0].frequencyHz - 100)).toBeLessThan(0.05);
+    expect(r.peaks.every((p: { frequencyHz: number }) => p.frequencyHz >= 10)).toBe(true);
+  });
+
+  it('names the component line under each peak with --machine, at the running speed it finds', async () => {
+    const examples = new URL('../../../../fixtures/', import.meta.url);
+    const r = await run(
+      new URL('examples/feed-pump-3-pump-de-h.wav', examples).pathname, '--unit', 'g',
+      '--machine', new URL('machines/skelmere-feed-pump-3.json', examples).pathname, '--point', 'pump-de-h',
+    );
+    expect(r.code, r.err).toBe(0);
+    // the simulated pump turns at 2968 rpm (make-examples.ts); the spectrum comb finds it within its uncertainty
+    const speed = /speed: ([\d.]+) ± ([\d.]+) rpm, from the spectrum/.exec(r.out);
+    expect(speed, r.out).not.toBeNull();
+    expect(Math.abs(Number(speed![1]) - 2968)).toBeLessThan(3 * Number(speed![2]) + 1);
+    // 1× of the train (unbalance) and the impeller's blade pass (7 vanes in the model: 7 × 49.47 Hz = 346.3 Hz)
+    expect(r.out).toMatch(/\n\s+49\.5 Hz\s+\S+\s+1× train/);
+    expect(r.out).toMatch(/\n\s+346\.3 Hz\s+\S+\s+blade pass impeller/);
+    const json = await runJson(new URL('examples/feed-pump-3-pump-de-h.wav', examples).pathname, '--unit', 'g', '--machine', new URL('machines/skelmere-feed-pump-3.json', examples).pathname);
+    expect(json.peaks[0]).toMatchObject({ line: '1× train' });
+    expect(json.speed.source).toBe('the spectrum');
+  });
+
+  it('refuses --point without --machine, and an unknown --unit with the accepted list', async () => {
+    const a = await run(wavPath, '--point', 'pump-de-h');
+    expect([a.code, a.err.trim()]).toEqual([2, 'kinespec spectrum: --point and --speed-rpm name a point and speed of a machine: give --machine <machine.json> too']);
+    const b = await run(wavPath, '--unit', 'furlongs');
+    expect(b.code).toBe(2);
+    expect(b.err.split('\n').filter(Boolean)).toHaveLength(1);
+    expect(b.err).toMatch(/--unit: 'furlongs' is not a unit Kinespec knows; accepted: g, /);
   });
 
   it('reads a CSV file, picks a channel by name or 1-based number, and shortens a segment longer than the record', async () => {
@@ -177,7 +224,7 @@ describe('spectrum verb', () => {
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/^kinespec spectrum: no-rate\.csv: /);
     expect(oneLine(r.err)).toBe(true);
-    const short = await run(path, '--sample-rate', '1000', '--unit', 'g');
+    const short = await run(path, '--sample-rate-hz', '1000', '--unit', 'g');
     expect(short.code).toBe(2);
     expect(short.err).toMatch(/has 3 samples; a spectrum needs at least 16/);
   });

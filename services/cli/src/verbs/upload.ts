@@ -3,14 +3,16 @@ import { readFileSync, statSync } from 'node:fs';
 import { basename, extname } from 'node:path';
 import { parseArgs } from 'node:util';
 import { CliError } from '../cli-error.js';
+import { renamedFlagHint } from '../flags.js';
+import { unitFlag } from '../recording-file.js';
 import type { CliIo } from '../io.js';
 import type { Verb } from '../verb.js';
 
 const USAGE =
   'kinespec upload <files...> --server URL --key KEY --machine ID --point ID\n' +
-  '       [--recorded-at ISO-TIME] [--speed-rpm N] [--sample-rate HZ] [--unit UNIT] [--retries 5] [--backoff-ms 500] [--json]\n\n' +
+  '       [--recorded-at ISO-TIME] [--speed-rpm N] [--sample-rate-hz F] [--unit UNIT] [--retries 5] [--backoff-ms 500] [--json]\n\n' +
   'Uploads field recordings (.wav, .csv, .tsv, .txt, .json; raw little-endian float32 .f32/.raw/.bin with\n' +
-  '--sample-rate and --unit) to a Kinespec server. Each upload carries an Idempotency-Key derived from the\n' +
+  '--sample-rate-hz and --unit) to a Kinespec server. Each upload carries an Idempotency-Key derived from the\n' +
   "file's SHA-256 (and the machine and point), so running the command again never stores a file twice.\n" +
   'Network errors, 429 and 5xx answers are retried with exponential backoff (Retry-After is honoured).';
 
@@ -68,7 +70,7 @@ function parseFlags(args: string[]): { files: string[]; flags: UploadFlags } {
         point: { type: 'string' },
         'recorded-at': { type: 'string' },
         'speed-rpm': { type: 'string' },
-        'sample-rate': { type: 'string' },
+        'sample-rate-hz': { type: 'string' },
         unit: { type: 'string' },
         retries: { type: 'string' },
         'backoff-ms': { type: 'string' },
@@ -76,7 +78,7 @@ function parseFlags(args: string[]): { files: string[]; flags: UploadFlags } {
       },
     });
   } catch (err) {
-    throw new CliError(err instanceof Error ? err.message : String(err));
+    throw new CliError(renamedFlagHint(args) ?? (err instanceof Error ? err.message : String(err)));
   }
   const v = parsed.values;
   for (const flag of ['server', 'key', 'machine', 'point'] as const) {
@@ -102,8 +104,8 @@ function parseFlags(args: string[]): { files: string[]; flags: UploadFlags } {
       point: v.point!,
       ...(v['recorded-at'] !== undefined ? { recordedAt: v['recorded-at'] } : {}),
       ...(v['speed-rpm'] !== undefined ? { speedRpm: positive('--speed-rpm', v['speed-rpm'])! } : {}),
-      ...(v['sample-rate'] !== undefined ? { sampleRateHz: positive('--sample-rate', v['sample-rate'])! } : {}),
-      ...(v.unit !== undefined ? { unit: v.unit } : {}),
+      ...(v['sample-rate-hz'] !== undefined ? { sampleRateHz: positive('--sample-rate-hz', v['sample-rate-hz'])! } : {}),
+      ...(v.unit !== undefined ? { unit: unitFlag(v.unit)! } : {}),
       retries: wholeAtLeast('--retries', v.retries, 0, 5),
       backoffMs: wholeAtLeast('--backoff-ms', v['backoff-ms'], 0, 500),
       json: v.json ?? false,
@@ -195,13 +197,21 @@ async function uploadOne(file: string, flags: UploadFlags, io: CliIo): Promise<U
 }
 
 function describeOutcome(o: UploadOutcome): string {
-  const b = o.body as { recordingId?: string; duplicate?: boolean; analysis?: { velocityRmsMmPerS?: number | null; zone?: string | null; topHypotheses?: Array<{ fault: string; component: string; score: number }> } };
+  const b = o.body as {
+    recordingId?: string;
+    duplicate?: boolean;
+    analysisState?: string;
+    analysis?: { velocityRmsMmPerS?: number | null; zone?: string | null; topHypotheses?: Array<{ fault: string; component: string; score: number }>; warnings?: string[] };
+  };
   const a = b.analysis;
   const parts = [`${o.file}: recording ${b.recordingId}${b.duplicate ? ' (already stored)' : ''}`];
   if (a?.velocityRmsMmPerS != null) parts.push(`${a.velocityRmsMmPerS.toFixed(2)} mm/s r.m.s.${a.zone ? `, zone ${a.zone}` : ''}`);
   const top = a?.topHypotheses?.[0];
   if (top) parts.push(`top hypothesis ${top.fault} on ${top.component} (${top.score.toFixed(2)})`);
-  return parts.join('; ');
+  // 202: stored for good, analysed later by a worker of the queue
+  if (b.analysisState === 'queued') parts.push(`analysis queued: GET /api/v1/recordings/${b.recordingId}/analysis`);
+  // what the server assumed or set aside (unit read as the point's, nominal speed, mistyped keys): one note each
+  return [parts.join('; '), ...(a?.warnings ?? []).map((w) => `  note: ${w}`)].join('\n');
 }
 
 export const uploadVerb: Verb = {

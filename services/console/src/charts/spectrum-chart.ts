@@ -38,6 +38,12 @@ export interface SpectrumChart {
   destroy(): void;
 }
 
+/** Labels drawn at most on one chart; the others are named under the pointer and in the evidence table. */
+const MAX_LABELS = 10;
+const LABEL_FONT_PX = 10;
+const LABEL_ROW_PX = 12;
+const LABEL_GAP_PX = 6;
+
 const lineStyle = (line: PredictedLine): { shape: MarkerShape; dash: number[]; filled: boolean } =>
   line.matched
     ? { shape: 'triangle-down', dash: [], filled: !line.ambiguous }
@@ -148,7 +154,7 @@ export function createSpectrumChart(host: HTMLElement, opts: SpectrumChartOption
     ctx.restore();
   };
 
-  // Markers and labels above the plot area, after everything else.
+  // Markers above the plot area, after everything else; labels as text over the chart (placeLabels).
   const drawMarkers = (self: uPlot) => {
     const ctx = self.ctx;
     const px = uPlot.pxRatio;
@@ -157,10 +163,6 @@ export function createSpectrumChart(host: HTMLElement, opts: SpectrumChartOption
     ctx.beginPath();
     ctx.rect(left - 6 * px, 0, width + 12 * px, top);
     ctx.clip();
-    ctx.font = `${10 * px}px system-ui, sans-serif`;
-    ctx.textBaseline = 'bottom';
-    ctx.textAlign = 'center';
-    const rowEnds = [-Infinity, -Infinity];
     const markerY = top - 6 * px;
     for (const line of visible(self)) {
       const x = xOf(self, line);
@@ -172,19 +174,56 @@ export function createSpectrumChart(host: HTMLElement, opts: SpectrumChartOption
       ctx.fillStyle = style.filled ? colour : '#fff';
       ctx.fill();
       if (!style.filled) ctx.stroke();
-      // Two staggered label rows above the markers; a label that does not fit is left to the table.
-      const text = line.label;
-      const textWidth = ctx.measureText(text).width;
-      const row = rowEnds.findIndex((end) => x - textWidth / 2 > end + 3 * px);
-      if (row >= 0 && text) {
-        ctx.fillStyle = ink;
-        ctx.fillText(text, x, markerY - (6 + row * 11) * px);
-        rowEnds[row] = x + textWidth / 2;
-      }
     }
     ctx.restore();
+    placeLabels(self);
     drawCount += 1;
     figure.dataset.drawn = String(drawCount);
+  };
+
+  // Labels for the lines that matter most, never on top of each other: matched lines first, the strongest
+  // measured peaks first among them, then the rest; at most MAX_LABELS, in two rows above the markers. A line
+  // left unlabelled is named by the readout when the pointer is over it, and in the evidence table.
+  const labelLayer = h('div', { class: 'line-labels', 'aria-hidden': 'true' });
+  const placeLabels = (self: uPlot) => {
+    labelLayer.replaceChildren();
+    const ctx = self.ctx;
+    ctx.save();
+    ctx.font = `${LABEL_FONT_PX * uPlot.pxRatio}px system-ui, sans-serif`;
+    const widthOf = (text: string) => ctx.measureText(text).width / uPlot.pxRatio + 4;
+    ctx.restore();
+    const overLeft = self.over.offsetLeft;
+    const overTop = self.over.offsetTop;
+    const plotWidth = self.over.clientWidth;
+    const priority = (l: PredictedLine) => (l.matched ? 2 : 0) + (l.matched && !l.ambiguous ? 1 : 0);
+    const candidates = visible(self)
+      .filter((l) => l.label)
+      .sort((p, q) => priority(q) - priority(p) || (q.measured ?? 0) - (p.measured ?? 0) || Math.abs(q.predicted) - Math.abs(p.predicted));
+    const placed: Array<{ row: number; from: number; to: number }> = [];
+    let shown = 0;
+    for (const line of candidates) {
+      if (shown >= MAX_LABELS) break;
+      const centre = self.valToPos(line.x, 'x');
+      const w = widthOf(line.label);
+      const from = Math.max(-overLeft, Math.min(centre - w / 2, plotWidth - w + 8));
+      const to = from + w;
+      const row = [0, 1].find((r) => placed.every((b) => b.row !== r || to + LABEL_GAP_PX <= b.from || from >= b.to + LABEL_GAP_PX));
+      if (row === undefined) continue;
+      placed.push({ row, from, to });
+      shown += 1;
+      labelLayer.append(
+        h(
+          'span',
+          {
+            class: `line-label${line.matched ? ' matched' : ''}`,
+            'data-frequency': line.frequencyHz,
+            style: `left:${(overLeft + from).toFixed(1)}px;top:${(overTop - 16 - (row + 1) * LABEL_ROW_PX).toFixed(1)}px;width:${w.toFixed(1)}px`,
+          },
+          line.label,
+        ),
+      );
+    }
+    figure.dataset.labelsShown = String(shown);
   };
 
   const nearestLine = (xVal: number, pxTolerance: number, self: uPlot): PredictedLine | null => {
@@ -220,7 +259,8 @@ export function createSpectrumChart(host: HTMLElement, opts: SpectrumChartOption
   const plotOptions: uPlot.Options = {
     width: Math.max(200, host.clientWidth || 800),
     height,
-    padding: [34, 12, 0, 4],
+    // room above the plot for the markers and two rows of labels
+    padding: [44, 12, 0, 4],
     legend: { show: false },
     scales: {
       x: { time: false, range: (_u, lo, hi) => [lo, hi] },
@@ -250,6 +290,7 @@ export function createSpectrumChart(host: HTMLElement, opts: SpectrumChartOption
   };
 
   u = new uPlot(plotOptions, [xs, ys], plotHost);
+  plotHost.append(labelLayer);
   if (opts.initialRange && n > 1) setXRange(u, bounds, opts.initialRange.min, opts.initialRange.max);
   const stopWidth = trackWidth(plotHost, u, height);
   const stopZoom = attachZoomPan(u, plotHost, bounds);

@@ -99,32 +99,48 @@ export function createXyChart(host: HTMLElement, opts: XyChartOptions): XyChart 
       return ys.map((v) => (v === null ? null : Math.max(v, floor)));
     }),
   ];
+  // Each curve's name at its right end. Labels are spread apart vertically (one row each, in the order of their
+  // curves' ends) so none covers another; those the plot has no room for are left to the legend below.
   const drawEndLabels = (u: uPlot) => {
     const c = u.ctx;
     const px = uPlot.pxRatio;
+    const row = 12 * px;
     c.save();
     c.font = `${10 * px}px system-ui, sans-serif`;
     c.textAlign = 'right';
     c.textBaseline = 'bottom';
-    const taken: number[] = [];
+    const wanted: Array<{ i: number; text: string; x: number; y: number; w: number }> = [];
     opts.series.forEach((s, i) => {
       const ys = u.data[i + 1]!;
       // the last visible point of the curve
       let j = ys.length - 1;
       while (j >= 0 && (ys[j] === null || ys[j] === undefined || (u.data[0][j] as number) > u.scales.x!.max!)) j--;
       if (j < 0) return;
+      const y = u.valToPos(ys[j] as number, 'y', true) - 2 * px;
+      if (y < u.bbox.top || y > u.bbox.top + u.bbox.height + row) return;
+      const text = s.label.split(' · ')[0]!;
       const x = Math.min(u.valToPos(u.data[0][j] as number, 'x', true), u.bbox.left + u.bbox.width) - 3 * px;
-      let y = u.valToPos(ys[j] as number, 'y', true) - 2 * px;
-      if (y < u.bbox.top + 10 * px || y > u.bbox.top + u.bbox.height) return;
-      while (taken.some((t) => Math.abs(t - y) < 11 * px)) y -= 11 * px;
-      taken.push(y);
-      c.fillStyle = 'rgba(255,255,255,0.8)';
-      const w = c.measureText(s.label).width;
-      c.fillRect(x - w - 2 * px, y - 11 * px, w + 4 * px, 12 * px);
-      c.fillStyle = s.colour ?? seriesColours[i % seriesColours.length]!;
-      c.fillText(s.label.split(' · ')[0]!, x, y);
+      wanted.push({ i, text, x, y: Math.max(u.bbox.top + row, y), w: c.measureText(text).width });
     });
+    wanted.sort((a, b) => a.y - b.y);
+    const placed: typeof wanted = [];
+    for (const label of wanted) {
+      // a label whose box would reach into an earlier one's box moves down a row at a time
+      let y = label.y;
+      const clash = (yy: number) => placed.some((p) => yy - row < p.y && yy > p.y - row && label.x - label.w < p.x && label.x > p.x - p.w);
+      while (clash(y)) y += row;
+      if (y > u.bbox.top + u.bbox.height) continue;
+      placed.push({ ...label, y });
+    }
+    for (const p of placed) {
+      c.fillStyle = 'rgba(255,255,255,0.85)';
+      c.fillRect(p.x - p.w - 2 * px, p.y - row, p.w + 4 * px, row);
+      c.fillStyle = opts.series[p.i]!.colour ?? seriesColours[p.i % seriesColours.length]!;
+      c.fillText(p.text, p.x, p.y);
+    }
     c.restore();
+    // the boxes in CSS pixels of the plot, for checks that no two overlap
+    figure.dataset.endLabels = JSON.stringify(placed.map((p) => ({ text: p.text, left: (p.x - p.w - 2 * px) / px, right: (p.x + 2 * px) / px, top: (p.y - row) / px, bottom: p.y / px })));
   };
   const bounds: XBounds = { min: Math.min(...xs), max: Math.max(...xs) };
   const options: uPlot.Options = {
@@ -138,12 +154,17 @@ export function createXyChart(host: HTMLElement, opts: XyChartOptions): XyChart 
         range: (_u, lo, hi) => {
           if (lo === hi) return [lo - 1, hi + 1];
           if (!opts.stems) return [lo, hi];
-          // stems at the very edge would be half hidden by the frame
+          // stems of a spectrum stand on a frequency axis from 0, so the first line sits clear of the frame
           const pad = (hi - lo) * 0.04;
-          return [lo >= 0 ? Math.max(0, lo - pad) : lo - pad, hi + pad];
+          return [lo >= 0 ? 0 : lo - pad, hi + pad];
         },
       },
-      y: opts.logY ? { distr: 3, log: 10 } : opts.yRange ? { range: () => opts.yRange! } : {},
+      // on a log axis a stem needs room below its value, or the smallest line stands at the axis with no height
+      y: opts.logY
+        ? { distr: 3, log: 10, ...(opts.stems ? { range: (_u: uPlot, lo: number, hi: number) => [10 ** Math.floor(Math.log10(lo / 1.5)), hi * 2] as [number, number] } : {}) }
+        : opts.yRange
+          ? { range: () => opts.yRange! }
+          : {},
     },
     axes: [axis(opts.xLabel, { values: numberTicks, space: 60, size: 34 }), axis(opts.yLabel, { values: numberTicks, size: 54 })],
     series: [

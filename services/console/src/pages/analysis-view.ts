@@ -1,9 +1,10 @@
-import type { Hypothesis, RecordingAnalysis } from '../api-types.js';
+import type { Hypothesis, RecordingAnalysis, RecordingMeta } from '../api-types.js';
 import type { Cleanup } from '../app-context.js';
 import { createSpectrumChart, type SpectrumChart } from '../charts/spectrum-chart.js';
 import type { XBounds } from '../charts/chart-base.js';
 import { clear, h, message, uid } from '../dom.js';
 import { faultName, formatDateTime, formatFixed, formatNumber } from '../format.js';
+import { amplitudeUnits, evidenceCounts, prefersLogScale } from '../evidence-units.js';
 import { chartForDomain, predictedLines, type PredictedLine } from '../predicted-lines.js';
 import { convertSpectrum, type Quantity } from '../spectrum-quantity.js';
 import { scoreBadge, zoneBadge } from '../zone-badge.js';
@@ -13,7 +14,8 @@ import { scoreBadge, zoneBadge } from '../zone-badge.js';
 
 export interface AnalysisViewState {
   hypothesis: string | null;
-  logY: boolean;
+  /** null: each chart opens in the scale where its evidence shows (see prefersLogScale) */
+  logY: boolean | null;
   quantity: Quantity | null;
 }
 
@@ -30,26 +32,39 @@ function radioGroup<T extends string>(name: string, legend: string, options: Arr
   return set;
 }
 
-function summaryStrip(a: RecordingAnalysis): HTMLElement {
+function summaryStrip(a: RecordingAnalysis, meta: RecordingMeta | null): HTMLElement {
   const item = (label: string, value: Node | string, attrs: Record<string, string> = {}) => h('div', { class: 'stat', ...attrs }, h('dt', {}, label), h('dd', {}, value));
-  const speed = a.speedHz
-    ? `${formatFixed(a.speedHz, 3)} Hz · ${formatFixed(a.speedHz * 60, 1)} rpm${a.speedUncertaintyHz ? ` ± ${formatNumber(a.speedUncertaintyHz)} Hz` : ''}`
-    : 'unknown';
+  const fromVelocity = a.spectrum.quantity === 'velocity';
+  const channel = typeof a.channel === 'number' && meta ? meta.channelInfo[a.channel] : undefined;
   return h(
     'dl',
     { class: 'stats', id: 'analysis-stats' },
     item('Velocity RMS', h('span', {}, zoneBadge(a.overall.zone), ` ${formatFixed(a.overall.velocityRmsMmPerS, 2)} mm/s`), { 'data-zone': a.overall.zone ?? '' }),
     item('Band', `${formatNumber(a.overall.bandHz[0])}–${formatNumber(a.overall.bandHz[1])} Hz`),
-    item('Speed', `${speed}${a.speedSource ? ` (${a.speedSource})` : ''}`),
-    item('Accel. peak', `${formatNumber(a.overall.accelerationPeak)} ${a.overall.accelerationUnit}`),
-    item('Crest factor', formatFixed(a.overall.crestFactor, 2)),
-    item('Kurtosis', formatFixed(a.overall.kurtosis, 2)),
-    a.overall.envelopeRms !== undefined ? item('Envelope RMS', formatNumber(a.overall.envelopeRms)) : null,
+    item('Speed', speedText(a, meta), { 'data-speed-source': a.speedSource ?? '' }),
+    // a velocity channel's peak, crest factor and kurtosis are of its derivative: say so beside the number
+    item(fromVelocity ? 'Accel. peak (differentiated)' : 'Accel. peak', `${formatNumber(a.overall.accelerationPeak)} ${a.overall.accelerationUnit}`),
+    item(fromVelocity ? 'Crest factor (differentiated)' : 'Crest factor', formatFixed(a.overall.crestFactor, 2)),
+    item(fromVelocity ? 'Kurtosis (differentiated)' : 'Kurtosis', formatFixed(a.overall.kurtosis, 2)),
+    a.overall.envelopeRms !== undefined ? item('Envelope RMS', `${formatNumber(a.overall.envelopeRms)} ${a.overall.envelopeRmsUnit ?? a.envelopeSpectrum?.unit ?? a.overall.accelerationUnit}`) : null,
+    channel && meta && meta.channels > 1 ? item('Channel', `${a.channel! + 1} '${channel.name}' of ${meta.channels}`, { id: 'analysed-channel' }) : null,
     item('Analysed', `${formatDateTime(a.createdAt)} · ${/^\d/.test(a.softwareVersion) ? 'v' : ''}${a.softwareVersion} · model ${a.modelVersion ?? '–'}`),
   );
 }
 
-export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, state: AnalysisViewState, onState: (s: AnalysisViewState) => void): Cleanup {
+/**
+ * "1479.1 rpm ± 0.6 rpm (spectrum) · 24.65 Hz": rpm to a tenth (a spectrum seldom pins the speed closer), the
+ * uncertainty in rpm too, and where the speed came from. The analysis calls both a speed the uploader gave and
+ * the model's nominal speed it fell back to 'given'; the recording says which.
+ */
+function speedText(a: RecordingAnalysis, meta: RecordingMeta | null): string {
+  if (!a.speedHz) return 'unknown';
+  const unc = a.speedUncertaintyHz ? ` ± ${formatFixed(a.speedUncertaintyHz * 60, 1)} rpm` : '';
+  const source = a.speedSource === 'given' ? (meta && meta.speedRpm === null ? "model's nominal: not found in the spectrum" : 'given at upload') : a.speedSource ?? '–';
+  return `${formatFixed(a.speedHz * 60, 1)} rpm${unc} (${source}) · ${formatFixed(a.speedHz, 2)} Hz`;
+}
+
+export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, state: AnalysisViewState, onState: (s: AnalysisViewState) => void, meta: RecordingMeta | null = null): Cleanup {
   const charts: SpectrumChart[] = [];
   const ranges = new Map<string, XBounds | null>();
   const hypotheses = a.hypotheses ?? [];
@@ -59,8 +74,10 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
 
   const root = h('div', { class: 'analysis', 'data-analysis-id': a.id, 'data-recording-id': a.recordingId, 'data-top-hypothesis': hypotheses[0] ? hypothesisKey(hypotheses[0]) : '' });
   host.append(root);
-  root.append(summaryStrip(a));
-  if (a.warnings?.length) root.append(h('ul', { class: 'warnings', 'aria-label': 'Analysis warnings' }, ...a.warnings.map((w) => h('li', {}, `⚠ ${w}`))));
+  root.append(summaryStrip(a, meta));
+  // what was assumed or set aside: the file's (decoder) warnings, then the analysis's
+  const warnings = [...(meta?.warnings ?? []).map((w) => `file: ${w}`), ...(a.warnings ?? [])];
+  if (warnings.length) root.append(h('ul', { class: 'warnings', id: 'analysis-warnings', 'aria-label': 'Analysis warnings' }, ...warnings.map((w) => h('li', {}, `⚠ ${w}`))));
 
   // Hypotheses, strongest first; the chosen one's lines are drawn.
   const hypSection = h('section', { class: 'panel hypotheses', 'aria-labelledby': 'hyp-title' }, h('h2', { id: 'hyp-title' }, 'Hypotheses'));
@@ -119,7 +136,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
         renderEvidence();
         renderHypotheses();
       });
-      const matched = x.evidence.filter((e) => e.matched).length;
+      const counts = evidenceCounts(x);
       hypBody.append(
         h(
           'tr',
@@ -129,7 +146,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
           h('td', { class: 'mono' }, x.component),
           h('td', {}, scoreBadge(x.score)),
           h('td', {}, x.domain),
-          h('td', { class: 'num' }, `${matched} / ${x.evidence.length}`),
+          h('td', { class: 'num' }, `${counts.matched} of ${counts.predicted}`),
           h('td', { class: 'reason', title: x.reason }, h('span', { class: 'clamp' }, x.reason)),
         ),
       );
@@ -157,8 +174,8 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
   });
   if (hypotheses.length) controls.append(h('span', { class: 'field' }, h('label', { for: drawSelectId }, 'Predicted lines of'), drawSelect));
   controls.append(
-    radioGroup('amplitude-scale', 'Amplitude', [['linear', 'linear'], ['log', 'log']], logY ? 'log' : 'linear', (v) => {
-      logY = v === 'log';
+    radioGroup('amplitude-scale', 'Amplitude', [['auto', 'auto'], ['linear', 'linear'], ['log', 'log']], logY === null ? 'auto' : logY ? 'log' : 'linear', (v) => {
+      logY = v === 'auto' ? null : v === 'log';
       emit();
       renderCharts();
     }),
@@ -180,7 +197,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
       }),
     );
   }
-  controls.append(h('p', { class: 'help' }, 'Drag to zoom, wheel to zoom at the pointer, shift-drag (or touch) to pan, double-click to reset.'));
+  controls.append(h('p', { class: 'help chart-help' }, 'Drag to zoom, wheel to zoom, shift-drag to pan, double-click to reset.'));
 
   // Open where the drawn lines are (with some room beyond the last), not on the full band, where a
   // family of low-order lines would crowd into a few pixels; "all" shows the whole band.
@@ -217,66 +234,89 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
     clear(chartsBox);
     const key = chosen ? hypothesisKey(chosen) : null;
     const drawnKey = (kind: 'spectrum' | 'envelope' | 'order') => (chosen && chartForDomain(chosen.domain) === kind ? key : null);
-    const spectrumLines = linesFor('spectrum');
-    let spectrum = { values: a.spectrum.values, unit: a.spectrum.unit };
-    if (quantity !== a.spectrum.quantity && canConvert) spectrum = convertSpectrum(a.spectrum.frequenciesHz, a.spectrum.values, a.spectrum, quantity);
-    charts.push(
-      createSpectrumChart(chartsBox, {
-        kind: 'spectrum',
-        title: `${quantity === 'velocity' ? 'Velocity' : 'Acceleration'} spectrum (${a.spectrum.scaling}, Δf ${formatNumber(a.spectrum.frequencyResolutionHz)} Hz)`,
-        xLabel: 'Frequency (Hz)',
-        xUnit: 'Hz',
-        x: a.spectrum.frequenciesHz,
-        y: spectrum.values,
-        yUnit: spectrum.unit,
-        logY,
-        speedHz: a.speedHz,
-        lines: spectrumLines,
-        hypothesis: drawnKey('spectrum'),
-        initialRange: rangeFor('spectrum', spectrumLines, a.spectrum.frequenciesHz),
-      }),
-    );
-    if (a.envelopeSpectrum) {
-      const envelopeLines = linesFor('envelope');
-      charts.push(
-        createSpectrumChart(chartsBox, {
-          kind: 'envelope',
-          title: `Envelope spectrum (band ${formatNumber(a.envelopeSpectrum.bandHz[0])}–${formatNumber(a.envelopeSpectrum.bandHz[1])} Hz)`,
-          xLabel: 'Envelope frequency (Hz)',
+    // the chart that holds the drawn hypothesis's evidence comes first: the proof belongs at the top of the page
+    const proof = chosen ? chartForDomain(chosen.domain) : 'spectrum';
+    const builders: Array<{ kind: 'spectrum' | 'envelope' | 'order'; build: () => SpectrumChart | HTMLElement | null }> = [];
+    builders.push({
+      kind: 'spectrum',
+      build: () => {
+        const lines = linesFor('spectrum');
+        let spectrum = { values: a.spectrum.values, unit: a.spectrum.unit };
+        if (quantity !== a.spectrum.quantity && canConvert) spectrum = convertSpectrum(a.spectrum.frequenciesHz, a.spectrum.values, a.spectrum, quantity);
+        const initialRange = rangeFor('spectrum', lines, a.spectrum.frequenciesHz);
+        return createSpectrumChart(chartsBox, {
+          kind: 'spectrum',
+          title: `${quantity === 'velocity' ? 'Velocity' : 'Acceleration'} spectrum (${a.spectrum.scaling}, Δf ${formatNumber(a.spectrum.frequencyResolutionHz)} Hz)`,
+          xLabel: 'Frequency (Hz)',
           xUnit: 'Hz',
-          x: a.envelopeSpectrum.frequenciesHz,
-          y: a.envelopeSpectrum.values,
-          yUnit: a.envelopeSpectrum.unit,
-          logY,
+          x: a.spectrum.frequenciesHz,
+          y: spectrum.values,
+          yUnit: `${spectrum.unit} ${a.spectrum.scaling}`,
+          logY: logY ?? prefersLogScale(lines, a.spectrum.frequenciesHz, spectrum.values, initialRange),
           speedHz: a.speedHz,
-          lines: envelopeLines,
-          hypothesis: drawnKey('envelope'),
-          height: 240,
-          initialRange: rangeFor('envelope', envelopeLines, a.envelopeSpectrum.frequenciesHz),
-        }),
-      );
+          lines,
+          hypothesis: drawnKey('spectrum'),
+          height: proof === 'spectrum' ? 280 : 220,
+          initialRange,
+        });
+      },
+    });
+    if (a.envelopeSpectrum) {
+      const env = a.envelopeSpectrum;
+      builders.push({
+        kind: 'envelope',
+        build: () => {
+          const lines = linesFor('envelope');
+          const initialRange = rangeFor('envelope', lines, env.frequenciesHz);
+          return createSpectrumChart(chartsBox, {
+            kind: 'envelope',
+            title: `Envelope spectrum (band ${formatNumber(env.bandHz[0])}–${formatNumber(env.bandHz[1])} Hz)`,
+            xLabel: 'Envelope frequency (Hz)',
+            xUnit: 'Hz',
+            x: env.frequenciesHz,
+            y: env.values,
+            yUnit: `${env.unit} peak`,
+            logY: logY ?? prefersLogScale(lines, env.frequenciesHz, env.values, initialRange),
+            speedHz: a.speedHz,
+            lines,
+            hypothesis: drawnKey('envelope'),
+            height: proof === 'envelope' ? 280 : 200,
+            initialRange,
+          });
+        },
+      });
     } else if (chosen && chosen.domain === 'envelope') {
-      chartsBox.append(message('note', 'This hypothesis is judged on the envelope spectrum, which this analysis does not include.'));
+      builders.push({ kind: 'envelope', build: () => chartsBox.appendChild(message('note', 'This hypothesis is judged on the envelope spectrum, which this analysis does not include.')) });
     }
     if (a.orderSpectrum) {
-      const orderLines = linesFor('order');
-      charts.push(
-        createSpectrumChart(chartsBox, {
-          kind: 'order',
-          title: `Order spectrum of shaft ${a.orderSpectrum.shaft} (${a.speedSource ?? 'tach'})`,
-          xLabel: `Order of ${a.orderSpectrum.shaft}`,
-          xUnit: 'order',
-          x: a.orderSpectrum.orders,
-          y: a.orderSpectrum.values,
-          yUnit: a.spectrum.unit,
-          logY,
-          speedHz: a.speedHz,
-          lines: orderLines,
-          hypothesis: drawnKey('order'),
-          height: 240,
-          initialRange: rangeFor('order', orderLines, a.orderSpectrum.orders),
-        }),
-      );
+      const ord = a.orderSpectrum;
+      builders.push({
+        kind: 'order',
+        build: () => {
+          const lines = linesFor('order');
+          const initialRange = rangeFor('order', lines, ord.orders);
+          return createSpectrumChart(chartsBox, {
+            kind: 'order',
+            title: `Order spectrum of shaft ${ord.shaft} (${a.speedSource ?? 'tach'})`,
+            xLabel: `Order of ${ord.shaft}`,
+            xUnit: 'order',
+            x: ord.orders,
+            y: ord.values,
+            yUnit: `${a.spectrum.unit} ${a.spectrum.scaling}`,
+            logY: logY ?? prefersLogScale(lines, ord.orders, ord.values, initialRange),
+            speedHz: a.speedHz,
+            lines,
+            hypothesis: drawnKey('order'),
+            height: proof === 'order' ? 280 : 200,
+            initialRange,
+          });
+        },
+      });
+    }
+    builders.sort((x, y) => Number(y.kind === proof) - Number(x.kind === proof));
+    for (const b of builders) {
+      const made = b.build();
+      if (made && 'destroy' in made) charts.push(made);
     }
   };
 
@@ -288,6 +328,21 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
       return;
     }
     const lines = predictedLines(chosen);
+    const units = amplitudeUnits(chosen, a);
+    const counts = evidenceCounts(chosen);
+    const byLine = new Map(chosen.evidence.map((e) => [`${e.label}@${e.frequencyHz}`, e]));
+    const predictedOf = (l: PredictedLine) => {
+      const e = byLine.get(`${l.label}@${l.frequencyHz}`);
+      return e ? units.predictedOf(e) : null;
+    };
+    evidenceBox.append(
+      h(
+        'p',
+        { class: 'evidence-summary', id: 'evidence-counts', 'data-matched': counts.matched, 'data-predicted': counts.predicted },
+        `${counts.matched} of ${counts.predicted} predicted lines found, judged on the ${chosen.domain === 'envelope' ? 'envelope spectrum' : chosen.domain === 'order' ? 'order spectrum' : 'spectrum'}. `,
+        chosen.scaleNote ?? (units.scaled ? '' : 'The predictions are on the model’s own scale (a nominal load), not fitted to this measurement: compare lines with each other, not with the measured column.'),
+      ),
+    );
     const status = (l: PredictedLine) =>
       l.matched
         ? l.ambiguous
@@ -300,8 +355,8 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
         { class: 'table-scroll' },
         h(
           'table',
-          { class: 'data compact evidence-table', id: 'evidence-table', 'data-rows': lines.length },
-          h('thead', {}, h('tr', {}, ...['Line', 'Family', 'Frequency (Hz)', 'Order', 'Predicted', 'Measured', 'SNR (dB)', 'Status'].map((t) => h('th', { scope: 'col' }, t)))),
+          { class: 'data compact evidence-table', id: 'evidence-table', 'data-rows': lines.length, 'data-scaled': units.scaled ? 'true' : 'false' },
+          h('thead', {}, h('tr', {}, ...['Line', 'Family', 'Frequency (Hz)', 'Order (× reference shaft speed)', units.predictedHeading, units.measuredHeading, 'SNR (dB)', 'Status'].map((t) => h('th', { scope: 'col' }, t)))),
           h(
             'tbody',
             {},
@@ -313,7 +368,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
                 h('td', {}, l.family === 'harmonic' ? `harmonic ${l.harmonic ?? ''} of ${l.familyName}` : l.family === 'sideband' ? `sideband of ${l.familyName}` : l.familyName),
                 h('td', { class: 'num' }, formatNumber(l.frequencyHz, 5)),
                 h('td', { class: 'num' }, a.speedHz ? formatNumber(l.frequencyHz / a.speedHz, 4) : '–'),
-                h('td', { class: 'num' }, formatNumber(l.predicted)),
+                h('td', { class: 'num' }, formatNumber(predictedOf(l))),
                 h('td', { class: 'num' }, formatNumber(l.measured)),
                 h('td', { class: 'num' }, formatFixed(l.snrDb, 1)),
                 h('td', {}, status(l)),
@@ -333,7 +388,7 @@ export function renderAnalysisView(host: HTMLElement, a: RecordingAnalysis, stat
           h(
             'table',
             { class: 'data compact' },
-            h('thead', {}, h('tr', {}, ...['Frequency (Hz)', 'Order', 'Amplitude', 'SNR (dB)'].map((t) => h('th', { scope: 'col' }, t)))),
+            h('thead', {}, h('tr', {}, ...['Frequency (Hz)', 'Order (× reference shaft speed)', `Amplitude (${a.spectrum.unit} ${a.spectrum.scaling})`, 'SNR (dB)'].map((t) => h('th', { scope: 'col' }, t)))),
             h(
               'tbody',
               {},

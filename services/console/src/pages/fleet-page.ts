@@ -2,7 +2,7 @@ import type { MachineSummary, RankingRow, Zone } from '../api-types.js';
 import type { AppContext, Cleanup } from '../app-context.js';
 import { sparkline } from '../charts/sparkline.js';
 import { clear, h, message } from '../dom.js';
-import { concernLevel, concernWord, faultScoreThreshold, filterMachines, indicatorRise, sortMachines, type FleetFilter, type SortDirection, type SortKey } from '../fleet-order.js';
+import { concernLevel, concernWord, faultScoreThreshold, filterMachines, indicatorRise, risingRows, sortMachines, sparklineWeeks, type FleetFilter, type SortDirection, type SortKey } from '../fleet-order.js';
 import { crossingCell } from './fleet-crossing.js';
 import { faultName, formatAge, formatDateTime, formatNumber, indicatorName } from '../format.js';
 import { routeHref, type Route } from '../route.js';
@@ -19,7 +19,7 @@ const columns: Array<{ key: SortKey | null; label: string; spoken: string; numer
   { key: 'score', label: 'Strongest hypothesis', spoken: 'score of the strongest hypothesis' },
   { key: 'lastMeasured', label: 'Measured', spoken: 'time last measured' },
   { key: 'alarms', label: 'Alarms', spoken: 'active alarms', numeric: true },
-  { key: 'rise', label: 'Main indicator, weekly', spoken: 'change of the main indicator' },
+  { key: 'rise', label: 'Main indicator, weekly mean', spoken: 'change of the main indicator' },
   { key: 'crossing', label: 'Soonest crossing', spoken: 'soonest foreseen crossing' },
 ];
 
@@ -45,13 +45,20 @@ function indicatorCell(m: MachineSummary): HTMLElement {
   if (!main || main.sparkline.length === 0) return h('span', { class: 'muted' }, 'no history');
   const last = main.sparkline[main.sparkline.length - 1]!.mean;
   const rise = indicatorRise(m);
+  const weeks = sparklineWeeks(m);
   const arrow = rise === null ? '' : rise > 0.05 ? '▲' : rise < -0.05 ? '▼' : '▶';
   return h(
     'span',
     { class: 'indicator-cell' },
     sparkline(main.sparkline, `${indicatorName(main.indicator)} of ${m.name}`),
     h('span', { class: 'num' }, `${formatNumber(last)} `, h('span', { class: 'unit' }, main.unit)),
-    rise === null ? null : h('span', { class: `rise${rise > 0.2 ? ' rise-strong' : ''}`, title: 'change from the first to the last week shown' }, `${arrow} ${rise >= 0 ? '+' : ''}${Math.round(rise * 100)} %`),
+    rise === null
+      ? null
+      : h(
+          'span',
+          { class: `rise${rise > 0.2 ? ' rise-strong' : ''}`, title: `weekly mean of the worst point, first week shown against the last (${weeks ?? '?'} weeks apart)` },
+          `${arrow} ${rise >= 0 ? '+' : ''}${Math.round(rise * 100)} % in ${weeks ?? '?'} wk`,
+        ),
   );
 }
 
@@ -106,7 +113,15 @@ export async function renderFleetPage(main: HTMLElement, ctx: AppContext, route:
   const tbody = h('tbody');
   table.append(caption, thead, tbody);
 
-  const ranking = h('section', { class: 'panel ranking', 'aria-labelledby': 'ranking-title' }, h('h2', { id: 'ranking-title' }, 'Rising fastest over the last 4 weeks'));
+  const ranking = h(
+    'section',
+    { class: 'panel ranking', id: 'ranking', 'aria-labelledby': 'ranking-title' },
+    h('h2', { id: 'ranking-title' }, 'Rising fastest over the last 4 weeks'),
+    h('p', { class: 'help' }, 'Per point: the mean of the last 7 days against the mean of the 7 days ending 4 weeks ago. Follows the filter above.'),
+  );
+  const rankingBody = h('div');
+  ranking.append(rankingBody);
+  let rankingRows: RankingRow[] | null = null;
   const layout = h('div', { class: 'fleet-layout' }, h('section', { class: 'fleet-main', 'aria-label': 'Machines' }, filters, count, h('div', { class: 'table-scroll' }, table)), ranking);
   main.append(layout);
 
@@ -172,6 +187,43 @@ export async function renderFleetPage(main: HTMLElement, ctx: AppContext, route:
       );
     }
     if (shown.length === 0) tbody.append(h('tr', {}, h('td', { colspan: columns.length }, message('empty', 'No machine matches the filter.'))));
+    renderRanking(new Set(shown.map((m) => m.id)));
+  };
+
+  const renderRanking = (shown: ReadonlySet<string>) => {
+    if (rankingRows === null) return;
+    const names = new Map(machines.map((m) => [m.id, m.name]));
+    const unitOf = (r: RankingRow) => {
+      const main = machines.find((m) => m.id === r.machineId)?.mainIndicator;
+      return main && main.indicator === r.indicator ? ` ${main.unit}` : '';
+    };
+    const rows = risingRows(rankingRows, shown).slice(0, 8);
+    if (rows.length === 0) {
+      rankingBody.replaceChildren(message('empty', rankingRows.length === 0 ? 'Not enough history yet.' : 'No machine shown above has an indicator that rose over the last 4 weeks.'));
+      return;
+    }
+    rankingBody.replaceChildren(
+      h(
+        'table',
+        { class: 'data compact', id: 'ranking-table', 'data-rows': rows.length },
+        h('thead', {}, h('tr', {}, h('th', { scope: 'col' }, 'Machine'), h('th', { scope: 'col' }, 'Point'), h('th', { scope: 'col' }, 'Indicator'), h('th', { scope: 'col', class: 'num' }, '7-day mean, 4 weeks ago → now'), h('th', { scope: 'col', class: 'num' }, 'Rise in 4 wk'))),
+        h(
+          'tbody',
+          {},
+          ...rows.map((r) =>
+            h(
+              'tr',
+              { 'data-machine-id': r.machineId, 'data-rise-percent': r.risePercent.toFixed(1) },
+              h('td', {}, h('a', { href: routeHref('machine', r.machineId, { point: r.pointId }) }, names.get(r.machineId) ?? r.machineId)),
+              h('td', { class: 'mono' }, r.pointId),
+              h('td', {}, indicatorName(r.indicator)),
+              h('td', { class: 'num' }, `${formatNumber(r.before)} → ${formatNumber(r.after)}${unitOf(r)}`),
+              h('td', { class: 'num' }, `+${Math.round(r.risePercent)} %`),
+            ),
+          ),
+        ),
+      ),
+    );
   };
 
   search.addEventListener('input', () => {
@@ -194,37 +246,12 @@ export async function renderFleetPage(main: HTMLElement, ctx: AppContext, route:
 
   // The ranking is a help, not a requirement: the fleet stays usable if it fails.
   ctx.api
-    .get<RankingRow[]>('/api/v1/fleet/ranking', { weeks: 4, limit: 8 })
+    .get<RankingRow[]>('/api/v1/fleet/ranking', { weeks: 4, limit: 50 })
     .then((rows) => {
-      const names = new Map(machines.map((m) => [m.id, m.name]));
-      if (rows.length === 0) {
-        ranking.append(message('empty', 'Not enough history yet.'));
-        return;
-      }
-      ranking.append(
-        h(
-          'table',
-          { class: 'data compact', 'data-rows': rows.length },
-          h('thead', {}, h('tr', {}, h('th', { scope: 'col' }, 'Machine'), h('th', { scope: 'col' }, 'Point'), h('th', { scope: 'col' }, 'Indicator'), h('th', { scope: 'col', class: 'num' }, 'Weekly mean, before → after'), h('th', { scope: 'col', class: 'num' }, 'Rise'))),
-          h(
-            'tbody',
-            {},
-            ...rows.map((r) =>
-              h(
-                'tr',
-                {},
-                h('td', {}, h('a', { href: routeHref('machine', r.machineId, { point: r.pointId }) }, names.get(r.machineId) ?? r.machineId)),
-                h('td', { class: 'mono' }, r.pointId),
-                h('td', {}, indicatorName(r.indicator)),
-                h('td', { class: 'num' }, `${formatNumber(r.before)} → ${formatNumber(r.after)}`),
-                h('td', { class: 'num' }, Number.isFinite(r.risePercent) ? `${r.risePercent >= 0 ? '+' : ''}${Math.round(r.risePercent)} %` : formatNumber(r.rise)),
-              ),
-            ),
-          ),
-        ),
-      );
+      rankingRows = rows;
+      renderRanking(new Set(filterMachines(machines, filter).map((m) => m.id)));
     })
-    .catch(() => ranking.append(message('note', 'The ranking is not available.')));
+    .catch(() => rankingBody.replaceChildren(message('note', 'The ranking is not available.')));
 
   return () => {};
 }

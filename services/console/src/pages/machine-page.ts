@@ -1,17 +1,22 @@
 import { ApiProblem } from '../api-client.js';
-import type { MachineDetail, MeasurementPoint, RecordingAnalysis, RecordingRow } from '../api-types.js';
+import type { MachineDetail, MeasurementPoint, RecordingAnalysis, RecordingMeta, RecordingRow } from '../api-types.js';
 import type { AppContext, Cleanup } from '../app-context.js';
 import { clear, h, message, uid } from '../dom.js';
 import { faultName, formatDateTime, formatFixed, formatNumber } from '../format.js';
+import { landingPoint, type PointLatest } from '../landing-point.js';
 import { routeHref, type Route } from '../route.js';
 import type { Quantity } from '../spectrum-quantity.js';
+import { isQueued } from '../upload-summary.js';
+import { zoneBadge } from '../zone-badge.js';
 import { renderAlarmPanel } from './alarm-panel.js';
 import { renderAnalysisView, type AnalysisViewState } from './analysis-view.js';
+import { describeEntry, renderAuditPanel, renderCorrectionForm } from './correction-panel.js';
 import { renderDevelopingPanel } from './developing-panel.js';
 import { renderTrendPanel } from './trend-panel.js';
 
 // Machine: its points; for the chosen point its recordings, the chosen recording's analysis, the
-// point's trends; the machine's alarms. Choices are kept in the URL so a view can be shared.
+// point's trends; the machine's alarms and corrections. Choices are kept in the URL so a view can be
+// shared. Without a point in the URL the page opens on the point whose newest recording is worst.
 
 export function safetyNote(): HTMLElement {
   return h(
@@ -19,10 +24,12 @@ export function safetyNote(): HTMLElement {
     { class: 'safety', role: 'note', 'aria-label': 'Safety note' },
     h('strong', {}, 'Safety. '),
     'A diagnosis here supports, and never replaces, the judgement of a qualified engineer. ',
-    'Any work on the machine, including mounting or moving sensors, follows the site’s lock-out/tag-out and guarding rules, the machine maker’s limits and local codes. ',
-    'A machine in zone D or with a trip alarm is assessed on site before it keeps running.',
+    'Work on the machine, mounting or moving sensors included, follows the site’s lock-out/tag-out and guarding rules, the maker’s limits and local codes; ',
+    'a machine in zone D or with a trip alarm is assessed on site before it keeps running.',
   );
 }
+
+const isVibration = (p: MeasurementPoint) => p.quantity !== 'tach' && p.quantity !== 'encoder';
 
 function pointLabel(p: MeasurementPoint): string {
   const where = [p.near ? `near ${p.near}` : null, p.shaft ? `on ${p.shaft}` : null, p.direction ?? null].filter(Boolean).join(', ');
@@ -47,12 +54,28 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
     throw err;
   }
   const cleanups: Cleanup[] = [];
+  const vibrationPoints = machine.points.filter(isVibration);
+  const pointsPath = (p: string) => `/api/v1/machines/${encodeURIComponent(machineId)}/points/${encodeURIComponent(p)}/recordings`;
+
+  // the newest recording of every vibration point: the landing choice and a zone beside each point
+  const latest = new Map<string, PointLatest>();
+  await Promise.all(
+    vibrationPoints.map(async (p) => {
+      try {
+        const [r] = await ctx.api.get<RecordingRow[]>(pointsPath(p.id), { limit: 1 });
+        if (r) latest.set(p.id, { pointId: p.id, zone: r.zone, velocityRmsMmPerS: r.velocityRmsMmPerS, topHypothesis: r.topHypothesis });
+      } catch {
+        // the point's own load below reports the error
+      }
+    }),
+  );
+  const landing = route.params.point ? null : landingPoint([...latest.values()]);
   const state = {
-    point: machine.points.find((p) => p.id === route.params.point)?.id ?? machine.points[0]?.id ?? null,
+    point: machine.points.find((p) => p.id === route.params.point)?.id ?? landing?.pointId ?? vibrationPoints[0]?.id ?? machine.points[0]?.id ?? null,
     recording: (route.params.recording ?? null) as string | null,
     view: {
-      hypothesis: route.params.hypothesis ?? null,
-      logY: route.params.scale === 'log',
+      hypothesis: route.params.hypothesis ?? landing?.hypothesis ?? null,
+      logY: route.params.scale === 'log' ? true : route.params.scale === 'linear' ? false : null,
       quantity: (route.params.quantity === 'velocity' || route.params.quantity === 'acceleration' ? route.params.quantity : null) as Quantity | null,
     } as AnalysisViewState,
   };
@@ -62,7 +85,7 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
         point: state.point,
         recording: state.recording,
         hypothesis: state.view.hypothesis,
-        scale: state.view.logY ? 'log' : null,
+        scale: state.view.logY === null ? null : state.view.logY ? 'log' : 'linear',
         quantity: state.view.quantity,
       }),
     );
@@ -70,8 +93,8 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
   main.append(
     h(
       'div',
-      { class: 'page-head' },
-      h('p', { class: 'crumbs' }, h('a', { href: '#/fleet' }, 'Fleet'), ' / '),
+      { class: 'page-head compact' },
+      h('p', { class: 'crumbs' }, h('a', { href: '#/fleet' }, 'Fleet'), ' /'),
       h('h1', { 'data-machine-id': machine.id }, machine.name),
       h(
         'p',
@@ -80,7 +103,8 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
         ` · model version ${machine.modelVersion ?? '–'} · ${machine.points.length} point${machine.points.length === 1 ? '' : 's'} · `,
         h('a', { href: routeHref('signatures', null, { machine: machine.id }) }, 'signature explorer'),
         ' · ',
-        h('a', { href: routeHref('upload', null, { machine: machine.id, point: state.point }) , id: 'upload-link' }, 'upload recordings'),
+        h('a', { href: routeHref('upload', null, { machine: machine.id, point: state.point }), id: 'upload-link' }, 'upload recordings'),
+        landing ? h('span', { class: 'landing-note', id: 'landing-note' }, ` · opened on ${landing.pointId}, the point whose newest recording is worst`) : null,
       ),
     ),
     safetyNote(),
@@ -89,13 +113,24 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
   const pointsBox = h('fieldset', { class: 'panel points', id: 'points' }, h('legend', {}, 'Measurement points'));
   const recordingId = uid('recording');
   const recordingSelect = h('select', { id: recordingId, class: 'recording-select' });
-  const recordingsBox = h('div', { class: 'panel recordings' }, h('label', { for: recordingId, class: 'block-label' }, 'Recording'), recordingSelect, h('p', { class: 'help', id: 'recording-count' }));
-  const side = h('div', { class: 'machine-side' }, pointsBox, recordingsBox);
+  const correctionHost = h('div', { class: 'correction-host' });
+  const correctionDone = h('p', { class: 'msg msg-note', id: 'correction-done', role: 'status', hidden: true });
+  const recordingsBox = h(
+    'div',
+    { class: 'panel recordings' },
+    h('label', { for: recordingId, class: 'block-label' }, 'Recording'),
+    recordingSelect,
+    h('p', { class: 'help', id: 'recording-count' }),
+    correctionDone,
+    correctionHost,
+  );
+  const developingHost = h('div', { class: 'machine-developing' });
+  const side = h('div', { class: 'machine-side' }, pointsBox, recordingsBox, developingHost);
   const analysisHost = h('div', { class: 'machine-analysis', id: 'analysis-host', 'aria-live': 'polite' });
   const trendsHost = h('div', { class: 'machine-trends' });
   const alarmsHost = h('div', { class: 'machine-alarms' });
-  const developingHost = h('div', { class: 'machine-developing' });
-  main.append(developingHost, h('div', { class: 'machine-layout' }, side, analysisHost), trendsHost, alarmsHost);
+  const auditHost = h('div', { class: 'machine-audit' });
+  main.append(h('div', { class: 'machine-layout' }, side, analysisHost), trendsHost, alarmsHost, auditHost);
 
   if (machine.points.length === 0) pointsBox.append(message('empty', 'This machine has no measurement points.'));
   for (const p of machine.points) {
@@ -110,8 +145,25 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
       if (link) link.href = routeHref('upload', null, { machine: machine.id, point: p.id });
       void loadPoint();
     });
-    const levels = [p.alarmLevel ? `alarm ${formatNumber(p.alarmLevel)}` : null, p.tripLevel ? `trip ${formatNumber(p.tripLevel)}` : null].filter(Boolean).join(' · ');
-    pointsBox.append(h('div', { class: 'radio point-option', 'data-point-id': p.id }, input, h('label', { for: id }, pointLabel(p), levels ? h('span', { class: 'levels' }, levels) : null)));
+    // alarm and trip levels are velocity levels: they mean nothing on a tach or encoder point
+    const levels = isVibration(p)
+      ? [p.alarmLevel ? `alarm ${formatNumber(p.alarmLevel)} mm/s` : null, p.tripLevel ? `trip ${formatNumber(p.tripLevel)} mm/s` : null].filter(Boolean).join(' · ')
+      : '';
+    const now = latest.get(p.id);
+    pointsBox.append(
+      h(
+        'div',
+        { class: 'radio point-option', 'data-point-id': p.id, 'data-zone': now?.zone ?? '' },
+        input,
+        h(
+          'label',
+          { for: id },
+          pointLabel(p),
+          now ? h('span', { class: 'point-now' }, zoneBadge(now.zone), ` ${formatFixed(now.velocityRmsMmPerS, 2)} mm/s newest`) : null,
+          levels ? h('span', { class: 'levels' }, levels) : null,
+        ),
+      ),
+    );
   }
 
   let analysisCleanup: Cleanup | null = null;
@@ -122,14 +174,19 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
     analysisCleanup?.();
     analysisCleanup = null;
     clear(analysisHost);
+    clear(correctionHost);
     if (!recording) {
       analysisHost.append(message('empty', 'No recording on this point yet. Upload one from the Upload page.'));
       return;
     }
     analysisHost.append(message('note', 'Loading the analysis…'));
     let analysis: RecordingAnalysis;
+    let meta: RecordingMeta | null = null;
     try {
-      analysis = await ctx.api.get<RecordingAnalysis>(`/api/v1/recordings/${encodeURIComponent(recording.id)}/analysis`);
+      [analysis, meta] = await Promise.all([
+        ctx.api.get<RecordingAnalysis>(`/api/v1/recordings/${encodeURIComponent(recording.id)}/analysis`),
+        ctx.api.get<RecordingMeta>(`/api/v1/recordings/${encodeURIComponent(recording.id)}`).catch(() => null),
+      ]);
     } catch (err) {
       if (token !== loadToken) return;
       clear(analysisHost);
@@ -138,10 +195,26 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
     }
     if (token !== loadToken) return;
     clear(analysisHost);
-    analysisCleanup = renderAnalysisView(analysisHost, analysis, state.view, (s) => {
-      state.view = s;
-      remember();
-    });
+    if (isQueued(analysis)) {
+      // stored, its analysis still waiting in the queue (202): say so rather than draw nothing
+      analysisHost.append(message('note', 'This recording is stored; its analysis is still queued (behind the demo’s or other uploads). Choose the point again in a moment.'));
+    } else {
+      analysisCleanup = renderAnalysisView(analysisHost, analysis, state.view, (s) => {
+        state.view = s;
+        remember();
+      }, meta);
+    }
+    if (meta) {
+      renderCorrectionForm(correctionHost, ctx, meta, (entry) => {
+        correctionDone.hidden = false;
+        correctionDone.dataset.action = entry.action;
+        correctionDone.textContent = `Done: ${describeEntry(entry)}.`;
+        // the recording left this point or this time: show the point again, and the log
+        state.recording = entry.action === 'move' && entry.after?.pointId === state.point ? entry.recordingId : null;
+        void loadPoint();
+        void loadAudit();
+      });
+    }
   };
 
   const loadPoint = async () => {
@@ -155,7 +228,7 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
     trendCleanup = renderTrendPanel(trendsHost, ctx, machineId, pointId);
     let recordings: RecordingRow[];
     try {
-      recordings = await ctx.api.get<RecordingRow[]>(`/api/v1/machines/${encodeURIComponent(machineId)}/points/${encodeURIComponent(pointId)}/recordings`, { limit: 100 });
+      recordings = await ctx.api.get<RecordingRow[]>(pointsPath(pointId), { limit: 100 });
     } catch (err) {
       if (token !== loadToken) return;
       clear(analysisHost);
@@ -181,8 +254,10 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
     void showAnalysis({ id: recordingSelect.value } as RecordingRow, token);
   });
 
+  const loadAudit = () => renderAuditPanel(auditHost, ctx, machineId);
   cleanups.push(() => analysisCleanup?.(), () => trendCleanup?.());
   void renderAlarmPanel(alarmsHost, ctx, machineId);
+  void loadAudit();
   let alive = true;
   cleanups.push(() => (alive = false));
   void renderDevelopingPanel(developingHost, ctx, machineId, machine.points, () => alive);

@@ -29,6 +29,20 @@ function modelSpeed(machine: MachineDetail | null): ModelSpeed {
 const partialSumColours = [okabeIto.vermillion, okabeIto.blue, okabeIto.bluishGreen, okabeIto.reddishPurple, okabeIto.orange, okabeIto.skyBlue];
 const partialSumDashes = [[2, 2], [6, 3], [10, 3, 2, 3], [1, 3], [14, 4], [4, 2, 1, 2], [8, 2], [3, 3, 1, 3]];
 
+/**
+ * The signature the explorer opens on: a fault the diagnosis shows on this machine (score from 0.5); else, where
+ * the machine has gears, a missing tooth (its comb of shaft harmonics through the torsional chain is what the
+ * explorer shows best), on the gear of the strongest hypothesis when that is a gear; else the strongest hypothesis.
+ */
+export function defaultCandidate(candidates: readonly FaultCandidate[], top: { fault: string; component: string; score: number } | null): string | null {
+  const key = (c: { fault: string; component: string }) => `${c.fault}|${c.component}`;
+  if (top && top.score >= 0.5 && candidates.some((c) => key(c) === key(top))) return key(top);
+  const teeth = candidates.filter((c) => c.fault === 'gear-missing-tooth');
+  if (teeth.length) return key(teeth.find((c) => c.component === top?.component) ?? teeth[0]!);
+  if (top && candidates.some((c) => key(c) === key(top))) return key(top);
+  return candidates[0] ? key(candidates[0]) : null;
+}
+
 function lineLabel(line: SignatureLine, i: number): string {
   return typeof line.label === 'string' && line.label ? line.label : typeof line.harmonic === 'number' ? `${line.harmonic}×` : `line ${i + 1}`;
 }
@@ -44,7 +58,12 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
     return () => {};
   }
 
-  const machineSelect = h('select', { id: 'sig-machine', name: 'machine' }, ...machines.map((m) => h('option', { value: m.id, selected: m.id === route.params.machine }, m.name)));
+  // without a machine in the link: one whose gears show a fault (a tooth fault's comb through the torsional chain is
+  // what the explorer shows best), else the one whose strongest hypothesis scores highest
+  const gearFault = (m: (typeof machines)[number]) => (m.topHypothesis && m.topHypothesis.score >= 0.5 && m.topHypothesis.fault.startsWith('gear-') ? 1 : 0);
+  const defaultMachine =
+    route.params.machine ?? [...machines].sort((a, b) => gearFault(b) - gearFault(a) || (b.topHypothesis?.score ?? -1) - (a.topHypothesis?.score ?? -1))[0]?.id;
+  const machineSelect = h('select', { id: 'sig-machine', name: 'machine' }, ...machines.map((m) => h('option', { value: m.id, selected: m.id === defaultMachine }, m.name)));
   const faultSelect = h('select', { id: 'sig-fault', name: 'fault' });
   const speedInput = h('input', { id: 'sig-speed', name: 'speedRpm', type: 'number', min: 1, step: 'any', required: true, inputmode: 'decimal' });
   const harmonicsInput = h('input', { id: 'sig-harmonics', name: 'harmonics', type: 'number', min: 1, max: 200, step: 1, value: route.params.harmonics ?? '10', required: true });
@@ -76,9 +95,11 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
     } catch (err) {
       output.replaceChildren(message('error', err instanceof ApiProblem ? err.message : String(err)));
     }
-    // default: the fault the diagnosis currently suspects most on this machine
-    const top = machines.find((m) => m.id === machine!.id)?.topHypothesis;
-    const wanted = route.params.fault && route.params.component && route.params.machine === machine.id ? `${route.params.fault}|${route.params.component}` : top ? `${top.fault}|${top.component}` : null;
+    const top = machines.find((m) => m.id === machine!.id)?.topHypothesis ?? null;
+    const wanted =
+      route.params.fault && route.params.component && route.params.machine === machine.id
+        ? `${route.params.fault}|${route.params.component}`
+        : defaultCandidate(candidates, top);
     for (const c of candidates) {
       const value = `${c.fault}|${c.component}`;
       faultSelect.append(h('option', { value, selected: value === wanted }, `${faultName(c.fault)} @ ${c.component}`));
@@ -206,7 +227,13 @@ export async function renderSignaturePage(main: HTMLElement, ctx: AppContext, ro
           },
         }),
       );
-    } else excitationPanel.append(message('empty', 'The service sent no sampled waveform or partial sums for this fault (fixed-line faults such as unbalance have none).'));
+    } else {
+      // a fault with fixed lines (unbalance, misalignment) has no waveform to draw: its formula goes beside the lines
+      // and the panel makes way for the magnification
+      excitationPanel.remove();
+      if (exc?.formula) linesPanel.append(h('p', { class: 'formula' }, `Excitation: ${exc.template ? `${exc.template}: ` : ''}${exc.formula}. Its lines are fixed in size, so there is no waveform to sum.`));
+      grid.classList.add('single');
+    }
 
     // Magnification
     const magPanel = h('section', { class: 'panel', 'aria-labelledby': 'sig-mag-title' }, h('h2', { id: 'sig-mag-title' }, 'Magnification at each harmonic'));
