@@ -12,10 +12,21 @@ const readme = readFileSync('README.md', 'utf8');
 const names = envVars.map((v) => v.name);
 
 describe('docker-compose.yml', () => {
-  it('sets on the service only variables the service reads', () => {
-    const env = Object.keys(compose.services.api!.environment ?? {});
-    expect(env.length).toBeGreaterThan(0);
-    expect(env.filter((name) => !(names as string[]).includes(name))).toEqual([]);
+  it('sets on the API and the workers only variables the service reads', () => {
+    for (const service of ['api', 'worker']) {
+      const env = Object.keys(compose.services[service]!.environment ?? {});
+      expect(env.length).toBeGreaterThan(0);
+      expect(env.filter((name) => !(names as string[]).includes(name))).toEqual([]);
+    }
+  });
+
+  it('scales out: two API replicas that only queue, two workers on the same database', () => {
+    const { api, worker } = compose.services as Record<string, { deploy?: { replicas?: number }; command?: string[]; environment?: Record<string, string> }>;
+    expect(api!.deploy?.replicas).toBe(2);
+    expect(worker!.deploy?.replicas).toBe(2);
+    expect(api!.environment!['KINESPEC_QUEUE_WORKERS']).toBe('0');
+    expect(worker!.command).toContain('worker');
+    expect(worker!.environment!['DATABASE_URL']).toBe(api!.environment!['DATABASE_URL']);
   });
 
   it('runs the service against the PostgreSQL container, with health checks and a named volume', () => {
@@ -49,7 +60,7 @@ describe('README environment variables', () => {
   it('names no variable in the service code that config.ts does not list', () => {
     const dir = 'services/api/src';
     const files = readdirSync(dir, { recursive: true }).map(String).filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts'));
-    const text = files.map((f) => readFileSync(`${dir}/${f}`, 'utf8')).join('\n') + readFileSync('services/cli/src/verbs/serve.ts', 'utf8');
+    const text = files.map((f) => readFileSync(`${dir}/${f}`, 'utf8')).join('\n') + readFileSync('services/cli/src/verbs/serve.ts', 'utf8') + readFileSync('services/cli/src/verbs/worker.ts', 'utf8');
     const mentioned = new Set([...text.matchAll(/\b(KINESPEC_[A-Z_]+|DATABASE_URL)\b/g)].map((m) => m[1]!));
     expect([...mentioned].filter((n) => !(names as string[]).includes(n))).toEqual([]);
   });

@@ -98,13 +98,18 @@ export interface TestService {
   close(): Promise<void>;
 }
 
-export async function startTestService(target: TestTarget, config: Partial<{ maxUploadBytes: number; rateLimitMax: number; rateLimitWindowMs: number }> = {}): Promise<TestService> {
+export async function startTestService(
+  target: TestTarget,
+  config: Partial<{ maxUploadBytes: number; rateLimitMax: number; rateLimitWindowMs: number; maxAnalysisSamples: number; maxEventLoopDelayMs: number; uploadWaitMs: number; queueWorkers: number }> = {},
+): Promise<TestService> {
   const db = await target.open();
   await migrate(db.sql);
   const app = await buildApp({
     sql: db.sql,
+    connectionString: db.connectionString,
     logger: false,
-    config: { maxUploadBytes: 8 * 1024 * 1024, rateLimitMax: 0, rateLimitWindowMs: 60_000, consoleDir: '', ...config },
+    // load shedding off unless a test asks for it: inline analyses on a busy test machine lag the loop
+    config: { maxUploadBytes: 8 * 1024 * 1024, rateLimitMax: 0, rateLimitWindowMs: 60_000, consoleDir: '', maxEventLoopDelayMs: 0, uploadWaitMs: 60_000, ...config },
   });
   await app.ready();
   return {

@@ -119,14 +119,16 @@ describe('the HTTP service', () => {
 });
 
 describe('when the database fails', () => {
-  it('answers internal-error without a stack trace or driver message, and /ready says 503', async () => {
+  it('answers a lost database with 503 and Retry-After, without a stack trace or driver message, and /ready says 503', async () => {
     const svc = await startTestService(targets[0]!);
     const site = await makeSite(svc.db, 'failing');
     await svc.db.sql.end();
     const res = await svc.app.inject({ url: '/api/v1/machines', headers: auth(site.keys.engineer) });
-    expect(res.statusCode).toBe(500);
+    // a database that does not answer is the service's condition for now, not a fault: retry later
+    expect(res.statusCode).toBe(503);
+    expect(res.headers['retry-after']).toMatch(/^\d+$/);
     const body = res.json();
-    expect(body.type).toBe('urn:kinespec:problem:internal-error');
+    expect(body.type).toBe('urn:kinespec:problem:service-unavailable');
     expect(JSON.stringify(body)).not.toMatch(/\n\s+at |CONNECTION|postgres|\.ts:\d+/i);
     expect((await svc.app.inject('/ready')).statusCode).toBe(503);
     await svc.app.close();

@@ -45,7 +45,7 @@ for (const target of targets) {
         });
         const a = await insertAnalysis(tx, {
           recordingId: id, modelVersion: 1, softwareVersion: 'test', speedHz: null, speedSource: null,
-          velocityRmsMmPerS: indicators['velocity_rms_mm_per_s'] ?? null, zone: null, topHypothesis: null, resultJson: JSON.stringify({ indicators }),
+          velocityRmsMmPerS: indicators['velocity_rms_mm_per_s'] ?? null, zone: null, alarmState: null, alarmLevelMmPerS: null, tripLevelMmPerS: null, topHypothesis: null, resultJson: JSON.stringify({ indicators }),
         });
         await writeTrendValues(tx, { pointId: p, recordingId: id, analysisId: a.id, recordedAt, indicators });
         return id;
@@ -137,7 +137,7 @@ for (const target of targets) {
       const second = await db.sql.begin(async (tx) => {
         const a = await insertAnalysis(tx, {
           recordingId: id, modelVersion: 2, softwareVersion: 'test-2', speedHz: null, speedSource: null,
-          velocityRmsMmPerS: 1.5, zone: null, topHypothesis: null, resultJson: JSON.stringify({ indicators: { velocity_rms_mm_per_s: 1.5 } }),
+          velocityRmsMmPerS: 1.5, zone: null, alarmState: null, alarmLevelMmPerS: null, tripLevelMmPerS: null, topHypothesis: null, resultJson: JSON.stringify({ indicators: { velocity_rms_mm_per_s: 1.5 } }),
         });
         await writeTrendValues(tx, { pointId, recordingId: id, analysisId: a.id, recordedAt: new Date('2024-04-01T00:00:00Z'), indicators: { velocity_rms_mm_per_s: 1.5 } });
         return a;

@@ -20,7 +20,9 @@ import {
  * - Overall r.m.s. velocity (velocity_rms_mm_per_s): ALARM and TRIP levels are the point's own
  *   (alarmVelocityRmsMmPerS, tripVelocityRmsMmPerS in the machine model); without them ALARM is
  *   baseline + 0.25 x the B/C boundary, at most 1.25 x B/C (ISO 10816-3 §6.3), or the B/C boundary
- *   itself without a baseline, and TRIP is the C/D boundary (zone D begins).
+ *   itself without a baseline, and TRIP is the C/D boundary (zone D begins). The analysis grades these once
+ *   and they are stored with it (analysis-row.ts); the rule reads those stored levels, and the registry's only for
+ *   analyses stored before the levels were kept.
  * - Fault scores (score:<fault>:<component>): ALARM at 0.5, the score at which the recording shows
  *   the fault; no TRIP.
  * - Levels belong to vibration points: tach and encoder points have none.
@@ -46,14 +48,20 @@ export function levelPointOfRow(point: PointRow): LevelPoint {
   };
 }
 
-export function levelsOf(point: PointRow, indicator: string): IndicatorLevels {
+/**
+ * The levels of an indicator at a point. For the overall velocity the analysis's own graded levels when given
+ * (`graded`, stored with the analysis: one grading, the package's), else the registry's levels from the
+ * point's model columns (analyses stored before the levels were kept).
+ */
+export function levelsOf(point: PointRow, indicator: string, graded?: IndicatorLevels | null): IndicatorLevels {
+  if (graded && indicator === 'velocity_rms_mm_per_s') return graded;
   const levels = indicatorLevels(indicator, levelPointOfRow(point));
   return { alarmLevel: levels.alarmLevel, tripLevel: levels.tripLevel };
 }
 
 /** The levels with the clear level of the hysteresis (alarm-rule.ts). */
-export function ruleLevelsOf(point: PointRow, indicator: string): RuleLevels {
-  const { alarmLevel, tripLevel } = levelsOf(point, indicator);
+export function ruleLevelsOf(point: PointRow, indicator: string, graded?: IndicatorLevels | null): RuleLevels {
+  const { alarmLevel, tripLevel } = levelsOf(point, indicator, graded);
   const clearLevel = alarmLevel === null ? null : scoreIndicator(indicator) ? Math.min(SCORE_CLEAR_LEVEL, alarmLevel) : VELOCITY_CLEAR_FRACTION * alarmLevel;
   return { alarmLevel, tripLevel, clearLevel };
 }
@@ -70,7 +78,15 @@ export function alarmState(value: number, levels: IndicatorLevels): AlarmStateNa
 /** Applies the rule to one recording's indicators. Call inside the ingest transaction (point locked). */
 export async function evaluateAlarms(
   tx: Queryable,
-  r: { siteId: string; point: PointRow; recordingId: string; recordedAt: Date; indicators: Record<string, number> },
+  r: {
+    siteId: string;
+    point: PointRow;
+    recordingId: string;
+    recordedAt: Date;
+    indicators: Record<string, number>;
+    /** The analysis's graded alarm and trip levels of the overall velocity (analysis-row.ts velocityLevels). */
+    velocityLevels?: IndicatorLevels | null;
+  },
 ): Promise<void> {
   const newest = await newestRecordedAt(tx, r.point.id, r.recordingId);
   if (newest !== null && newest > r.recordedAt) return;
@@ -78,7 +94,7 @@ export async function evaluateAlarms(
   const openByIndicator = new Map(open.map((a) => [a.indicator, a]));
   const withLevels = Object.entries(r.indicators)
     .filter(([, value]) => Number.isFinite(value))
-    .map(([indicator]) => ({ indicator, levels: ruleLevelsOf(r.point, indicator) }))
+    .map(([indicator]) => ({ indicator, levels: ruleLevelsOf(r.point, indicator, r.velocityLevels) }))
     .filter((x) => x.levels.alarmLevel !== null || x.levels.tripLevel !== null);
   // the newest values of each indicator up to this recording (its own included), oldest first
   const history = await recentTrendValues(tx, { pointId: r.point.id, indicators: withLevels.map((x) => x.indicator), upTo: r.recordedAt, count: Math.max(RAISE_AFTER, CLEAR_AFTER) });
@@ -127,5 +143,12 @@ export async function reevaluatePointAlarms(
     await clearPointAlarms(tx, r.point.id, r.at, `rule: no recording left on the point (${r.why})`);
     return;
   }
-  await evaluateAlarms(tx, { siteId: r.siteId, point: r.point, recordingId: newest.recordingId, recordedAt: newest.recordedAt, indicators: newest.indicators });
+  await evaluateAlarms(tx, {
+    siteId: r.siteId,
+    point: r.point,
+    recordingId: newest.recordingId,
+    recordedAt: newest.recordedAt,
+    indicators: newest.indicators,
+    velocityLevels: newest.velocityLevels,
+  });
 }

@@ -14,6 +14,7 @@ type Options = Parameters<typeof analyse>[1];
 
 interface Pending {
   id: number;
+  timer?: NodeJS.Timeout;
   recording: Recording;
   options: Options;
   resolve(result: RecordingAnalysis): void;
@@ -29,17 +30,26 @@ export class AnalysisPool {
   private readonly slots: Slot[] = [];
   private readonly queue: Pending[] = [];
   private nextId = 1;
+  private readonly workerUrl = new URL('./analysis-worker.js', import.meta.url);
   private closed = false;
 
-  constructor(size: number, private readonly maxQueue = 256) {
-    const workerUrl = new URL('./analysis-worker.js', import.meta.url);
+  /**
+   * `timeoutMs`: an analysis running longer on a thread is abandoned (the thread is replaced) and answers
+   * 503 analysis-timed-out; inline analyses (size 0, or from the sources) cannot be interrupted.
+   */
+  constructor(size: number, private readonly maxQueue = 256, private readonly timeoutMs = 60_000) {
     const fromSources = import.meta.url.endsWith('.ts');
     if (fromSources) size = 0;
-    for (let i = 0; i < size; i++) this.slots.push(this.spawn(workerUrl));
+    for (let i = 0; i < size; i++) this.slots.push(this.spawn(this.workerUrl));
   }
 
   get threads(): number {
     return this.slots.length;
+  }
+
+  /** Analyses waiting for a thread, and those running: the queue depth the metrics report. */
+  get depth(): { waiting: number; running: number } {
+    return { waiting: this.queue.length, running: this.slots.filter((s) => s.job !== null).length };
   }
 
   private spawn(url: URL): Slot {
@@ -47,6 +57,7 @@ export class AnalysisPool {
     slot.worker.on('message', (message: { id: number; result?: RecordingAnalysis; error?: { name: string; code?: string; message: string; where?: string } }) => {
       const job = slot.job;
       slot.job = null;
+      if (job?.timer) clearTimeout(job.timer);
       if (job && job.id === message.id) {
         if (message.error) job.reject(Object.assign(new Error(message.error.message), message.error));
         else job.resolve(message.result!);
@@ -57,6 +68,7 @@ export class AnalysisPool {
       // a crashed thread fails its job and is replaced
       const job = slot.job;
       slot.job = null;
+      if (job?.timer) clearTimeout(job.timer);
       job?.reject(err);
       const i = this.slots.indexOf(slot);
       if (i >= 0 && !this.closed) this.slots[i] = this.spawn(url);
@@ -71,9 +83,25 @@ export class AnalysisPool {
       if (slot.job || this.queue.length === 0) continue;
       const job = this.queue.shift()!;
       slot.job = job;
+      job.timer = setTimeout(() => this.abandon(slot, job), this.timeoutMs);
+      job.timer.unref();
       const transfer = job.recording.channels.map((c) => c.samples.buffer as ArrayBuffer);
       slot.worker.postMessage({ id: job.id, recording: job.recording, options: job.options }, transfer);
     }
+  }
+
+  /** Ends a thread whose analysis overran its time, fails the job and starts a fresh thread in its place. */
+  private abandon(slot: Slot, job: Pending): void {
+    if (slot.job !== job) return;
+    slot.job = null;
+    const i = this.slots.indexOf(slot);
+    slot.worker.removeAllListeners();
+    void slot.worker.terminate();
+    job.reject(problem('analysis-timed-out', `the analysis took longer than ${this.timeoutMs} ms (KINESPEC_ANALYSIS_TIMEOUT_MS)`, {
+      headers: { 'retry-after': '30' },
+    }));
+    if (i >= 0 && !this.closed) this.slots[i] = this.spawn(this.workerUrl);
+    this.pump();
   }
 
   /** Analyses a recording (its sample buffers move to the worker: do not use them afterwards). */

@@ -1,18 +1,23 @@
 import { existsSync } from 'node:fs';
-import { createHash, randomBytes } from 'node:crypto';
+import { randomBytes } from 'node:crypto';
 import fastifyRateLimit from '@fastify/rate-limit';
+import underPressure from '@fastify/under-pressure';
 import fastifyStatic from '@fastify/static';
 import fastifySwagger from '@fastify/swagger';
 import fastifySwaggerUi from '@fastify/swagger-ui';
 import Fastify, { LogController, type FastifyBaseLogger, type FastifyInstance } from 'fastify';
 import { serializerCompiler, validatorCompiler, type ZodTypeProvider } from 'fastify-type-provider-zod';
 import { AnalysisPool } from './analysis-pool.js';
+import { runAnalysisJob } from './analysis-job.js';
+import { AnalysisQueue } from './analysis-queue.js';
+import { createMetrics, type ServiceMetrics } from './metrics.js';
+import { SampleBudget } from './sample-budget.js';
 import { BRAND_LOGO_SVG, BRAND_MARK_SVG, BRAND_NAME } from './brand.js';
-import { authenticate, authorise, bearerToken, type Permission } from './auth.js';
+import { ApiKeyCache, authenticate, authorise, bearerToken, type Permission } from './auth.js';
 import type { ServiceConfig } from './config.js';
 import type { Sql } from './database.js';
 import type { DemoStatus } from './demo-seed.js';
-import { registerProblemHandlers } from './http-errors.js';
+import { clientErrorHandler, frameworkErrors, registerProblemHandlers, sendProblem } from './http-errors.js';
 import { ModelCache } from './model-cache.js';
 import { openApiTransform } from './openapi.js';
 import { problem, problemTypes, problemUri } from './problems.js';
@@ -32,6 +37,8 @@ declare module 'fastify' {
   interface FastifyInstance {
     /** Sent as X-Kinespec-Internal by the process's own in-process requests (demo seeding): not rate-limited. */
     internalToken: string;
+    /** Every route with the permission its key needs (none: public), for the authorization matrix test. */
+    routeTable: Array<{ method: string; url: string; permission: Permission | null }>;
   }
   interface FastifyRequest {
     apiKey: ApiKeyRow | null;
@@ -47,16 +54,25 @@ export interface Services {
   sql: Sql;
   models: ModelCache;
   analysis: AnalysisPool;
+  /** Keys found valid lately (auth.ts); key routes drop revoked ones from it. */
+  keys: ApiKeyCache;
+  /** Samples admitted into analysis at once (sample-budget.ts). */
+  budget: SampleBudget;
+  metrics: ServiceMetrics;
+  /** The analysis queue (pg-boss) and this process's workers on it. */
+  queue: AnalysisQueue;
   config: AppConfig;
   /** The demo's progress while its recordings go in, null when there is no demo being seeded by this process. */
   demoStatus: () => DemoStatus | null;
 }
 
 export type AppConfig = Pick<ServiceConfig, 'maxUploadBytes' | 'rateLimitMax' | 'rateLimitWindowMs' | 'consoleDir'> &
-  Partial<Pick<ServiceConfig, 'analysisThreads'>>;
+  Partial<Pick<ServiceConfig, 'analysisThreads' | 'analysisTimeoutMs' | 'maxAnalysisSamples' | 'maxEventLoopDelayMs' | 'dbPoolMax' | 'queueWorkers' | 'uploadWaitMs'>>;
 
 export interface BuildAppOptions {
   sql: Sql;
+  /** The server's connection string (server mode): the job queue opens its own small pool there. Null: embedded. */
+  connectionString?: string | null;
   config: AppConfig;
   /** A pino logger, or false for none (tests). */
   logger?: FastifyBaseLogger | false;
@@ -75,21 +91,46 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     // one line per request (below), not two, and none for the demo's in-process requests
     logController: new LogController({ disableRequestLogging: true }),
     ajv: { customOptions: { coerceTypes: false } },
+    frameworkErrors,
+    clientErrorHandler,
   }).withTypeProvider<ZodTypeProvider>();
   app.setValidatorCompiler(validatorCompiler);
   app.setSerializerCompiler(serializerCompiler);
   app.decorateRequest('apiKey', null);
   const internalToken = randomBytes(24).toString('base64url');
   app.decorate('internalToken', internalToken);
+  const routeTable: FastifyInstance['routeTable'] = [];
+  app.decorate('routeTable', routeTable);
+  app.addHook('onRoute', (route) => {
+    for (const method of [route.method].flat()) {
+      if (method === 'HEAD') continue;
+      routeTable.push({ method, url: route.url, permission: (route.config as { permission?: Permission } | undefined)?.permission ?? null });
+    }
+  });
   registerProblemHandlers(app);
 
+  const analysis = new AnalysisPool(options.config.analysisThreads ?? 0, 256, options.config.analysisTimeoutMs ?? 60_000);
+  const budget = new SampleBudget(options.config.maxAnalysisSamples ?? 2 ** 26);
+  const logError = (err: Error) => (options.logger ? options.logger.warn({ err: err.message }, 'analysis queue') : undefined);
+  const queue = await AnalysisQueue.start(
+    { sql: options.sql, connectionString: options.connectionString ?? null },
+    { expireInSeconds: Math.ceil((options.config.analysisTimeoutMs ?? 60_000) / 1000) + 30, onError: logError },
+  );
   const services: Services = {
     sql: options.sql,
     models: new ModelCache(),
-    analysis: new AnalysisPool(options.config.analysisThreads ?? 0),
+    analysis,
+    budget,
+    keys: new ApiKeyCache(),
+    metrics: createMetrics({ sql: options.sql, analysis, budget, queue, dbPoolMax: options.config.dbPoolMax ?? 10 }),
+    queue,
     config: options.config,
     demoStatus: options.demoStatus ?? (() => null),
   };
+  const workers = options.config.queueWorkers ?? Math.max(1, options.config.analysisThreads ?? 1);
+  if (workers > 0) queue.startWorkers(workers, (job, context) => runAnalysisJob(services, job, context));
+  // the queue's workers stop before the analysis threads and the database pool
+  app.addHook('onClose', async () => queue.close());
   app.addHook('onClose', async () => services.analysis.close());
 
   // graceful shutdown: idle keep-alive connections close at once, busy ones right after their answer
@@ -132,38 +173,97 @@ export async function buildApp(options: BuildAppOptions): Promise<FastifyInstanc
     reply.type('image/svg+xml').header('cache-control', 'public, max-age=86400').send(BRAND_MARK_SVG),
   );
 
+  // Load shedding: while the event loop lags (every core busy, a flood of requests) new requests answer 503
+  // with Retry-After at once rather than queueing behind the lag; /health keeps answering.
+  const maxDelay = options.config.maxEventLoopDelayMs ?? 1000;
+  if (maxDelay > 0) {
+    await app.register(underPressure, {
+      maxEventLoopDelay: maxDelay,
+      retryAfter: 5,
+      pressureHandler: (request, reply, type, value) => {
+        if (request.url === '/health') {
+          void reply.send({ status: 'ok' });
+          return;
+        }
+        sendProblem(reply, request, problem('service-unavailable', `the service is overloaded (${type} ${typeof value === 'number' ? Math.round(value) : value}); retry after the time given`, {
+          headers: { 'retry-after': '5' },
+        }));
+      },
+    });
+  }
+
+  const keys = services.keys;
   if (options.config.rateLimitMax > 0) {
+    // Addresses whose requests carried keys that are not valid, counted per window: once an address has
+    // spent its budget on bad keys, its further tokens are not even looked up (no database work for guesses).
+    const badKeys = new Map<string, { count: number; resetAt: number }>();
+    const badKeysOf = (ip: string, now: number) => {
+      const entry = badKeys.get(ip);
+      if (entry && entry.resetAt > now) return entry;
+      if (badKeys.size >= 10_000) for (const [k, e] of badKeys) if (e.resetAt <= now) badKeys.delete(k);
+      const fresh = { count: 0, resetAt: now + options.config.rateLimitWindowMs };
+      badKeys.set(ip, fresh);
+      return fresh;
+    };
     await app.register(fastifyRateLimit, {
       global: true,
       max: options.config.rateLimitMax,
       timeWindow: options.config.rateLimitWindowMs,
-      // one budget per key (hashed, so the key never sits in memory as a map key), else per address
-      keyGenerator: (request) => {
+      // One budget per valid key (by its id), else one per client address: without a valid key, random
+      // tokens share their address's budget instead of each getting one of its own. The key found here is
+      // kept for the authentication hook, so a request is looked up once.
+      keyGenerator: async (request) => {
         const token = bearerToken(request);
-        return token ? `key:${createHash('sha256').update(token).digest('base64url').slice(0, 22)}` : `ip:${request.ip}`;
+        if (token === null) return `ip:${request.ip}`;
+        const bad = badKeysOf(request.ip, Date.now());
+        if (bad.count >= options.config.rateLimitMax) {
+          const seen = keys.seenValid(token);
+          return seen ? `key:${seen.id}` : `ip:${request.ip}`;
+        }
+        let key: ApiKeyRow | null;
+        try {
+          key = await keys.resolve(options.sql, token);
+        } catch {
+          // the database is away: the authentication hook answers 503; count the request to the address
+          return `ip:${request.ip}`;
+        }
+        if (!key) {
+          bad.count++;
+          return `ip:${request.ip}`;
+        }
+        request.apiKey = key;
+        return `key:${key.id}`;
       },
       allowList: (request) =>
-        request.url === '/health' || request.url === '/ready' || request.headers['x-kinespec-internal'] === internalToken,
+        request.url === '/health' || request.url === '/ready' || request.url === '/metrics' || request.headers['x-kinespec-internal'] === internalToken,
       errorResponseBuilder: (_request, context) =>
         problem('rate-limited', `rate limit of ${context.max} requests per window reached; retry in ${context.after}`),
     });
   }
 
   app.addHook('onResponse', async (request, reply) => {
+    services.metrics.requests.inc({ method: request.method, route: request.routeOptions.url ?? 'unmatched', status: String(reply.statusCode) });
     if (request.headers['user-agent'] === 'lightMyRequest') return;
     request.log.info({ method: request.method, url: request.url, status: reply.statusCode, ms: Math.round(reply.elapsedTime) }, 'request');
   });
 
-  // authentication before the body is read: an unknown caller cannot make the service buffer an upload
-  app.addHook('onRequest', async (request) => {
+  // Authentication before the body is read (an unknown caller cannot make the service buffer an upload), and
+  // after the rate limit (its onRequest hook, which may already have found the key).
+  app.addHook('preParsing', async (request) => {
     const permission = request.routeOptions.config.permission;
     if (!permission) return;
-    const key = await authenticate(services.sql, request);
+    const key = request.apiKey ?? (await authenticate(services.sql, request, keys));
     authorise(key, permission);
     request.apiKey = key;
   });
 
   await app.register(healthRoutes, { services, readiness: options.readiness });
+  app.get('/metrics', {
+    schema: { summary: 'Prometheus metrics of this process (text exposition format); no key needed, no site data', tags: ['health'], security: [] },
+  }, async (_request, reply) => {
+    const text = await services.metrics.registry.metrics();
+    return reply.type(services.metrics.registry.contentType).send(text);
+  });
   await app.register(
     async (api) => {
       await api.register(siteRoutes, { services });

@@ -16,7 +16,16 @@ export interface BootstrapResult {
  * returned here to be printed once). Later starts with KINESPEC_ADMIN_KEY set make sure that key
  * exists as an admin of the first site, which is how a lost bootstrap key is replaced.
  */
-export async function bootstrap(sql: Queryable, options: { adminKey: string | null; siteName: string }): Promise<BootstrapResult> {
+export async function bootstrap(sql: Queryable, options: { adminKey: string | null; siteName: string; platformKey?: string | null }): Promise<BootstrapResult> {
+  const result = await bootstrapSite(sql, options);
+  // the platform key (KINESPEC_PLATFORM_KEY) is held on the first site's row but its role reads nothing there
+  if (options.platformKey && !(await findApiKey(sql, hashApiKey(options.platformKey)))) {
+    await insertApiKey(sql, { siteId: result.siteId, role: 'platform', label: 'KINESPEC_PLATFORM_KEY', keyHash: hashApiKey(options.platformKey) });
+  }
+  return result;
+}
+
+async function bootstrapSite(sql: Queryable, options: { adminKey: string | null; siteName: string }): Promise<BootstrapResult> {
   if ((await countSites(sql)) === 0) {
     const site = await createSite(sql, options.siteName);
     const key = options.adminKey ?? newApiKey();

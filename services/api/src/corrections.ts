@@ -1,28 +1,30 @@
-import type { Recording } from '@kinespec/signal';
 import { actorName } from './auth.js';
 import { reevaluatePointAlarms } from './alarms.js';
 import type { RecordingAnalysis } from './analysis.js';
 import type { AnalysisPool } from './analysis-pool.js';
+import { analysisOptions, storedRecording } from './analysis-job.js';
+import { analysisRow } from './analysis-row.js';
 import type { Queryable, Sql } from './database.js';
-import { insertCurrentAnalysis, runAnalysis, summarise, type AnalysisSummary } from './ingest.js';
+import { runAnalysis, summarise, type AnalysisSummary } from './ingest.js';
 import type { ModelCache } from './model-cache.js';
 import { problem } from './problems.js';
-import { unpackSamples } from './samples-codec.js';
+import type { SampleBudget } from './sample-budget.js';
 import {
-  analysisChannelOf,
   clearAlarmsRaisedBy,
   deleteRecordingRow,
+  ensureTrendMonth,
   findMachine,
   findPoint,
   getPointById,
   getRecording,
-  getRecordingSamples,
+  insertAnalysis,
   insertAuditEntry,
   lockPoint,
   modelVersionAt,
   moveRecordingRow,
   rebuildTrendDay,
   recordingIdentity,
+  setAnalysisState,
   writeTrendValues,
   type ApiKeyRow,
   type AuditEntry,
@@ -36,9 +38,9 @@ import {
  * writes an audit entry: who (the key's label and id), when, what it was before and after, and why.
  */
 
-type CorrectionServices = { sql: Sql; models: ModelCache; analysis: AnalysisPool };
+type CorrectionServices = { sql: Sql; models: ModelCache; analysis: AnalysisPool; budget?: SampleBudget };
 
-async function storedRecording(sql: Sql, siteId: string, recordingId: string) {
+async function recordingOnSite(sql: Sql, siteId: string, recordingId: string) {
   const row = await getRecording(sql, siteId, recordingId);
   if (!row) throw problem('not-found', `no recording '${recordingId}' on this site`);
   return row;
@@ -55,7 +57,7 @@ export async function deleteRecording(
   recordingId: string,
   reason: string,
 ): Promise<AuditEntry> {
-  const row = await storedRecording(sql, key.siteId, recordingId);
+  const row = await recordingOnSite(sql, key.siteId, recordingId);
   const point = (await getPointById(sql, row.pointId))!;
   return sql.begin(async (tx) => {
     await lockPoints(tx, [row.pointId]);
@@ -87,11 +89,13 @@ export interface MoveResult {
 /**
  * Moves a recording to another point (of the same or another machine of the site) and/or another time, and
  * analyses it again against the model of its new machine current at its new time: the evidence of a recording
- * depends on the point it was taken at.
+ * depends on the point it was taken at. The analysis runs here, as a queued job's does (the same analysis pool,
+ * sample budget and row builder, analysis-row.ts), so that the answer carries it; the recording is then 'done',
+ * and a job still queued for it finds that and stops.
  */
 export async function moveRecording(services: CorrectionServices, key: ApiKeyRow, recordingId: string, move: MoveRequest): Promise<MoveResult> {
   const { sql, models, analysis: pool } = services;
-  const row = await storedRecording(sql, key.siteId, recordingId);
+  const row = await recordingOnSite(sql, key.siteId, recordingId);
   const from = (await getPointById(sql, row.pointId))!;
   const machineKey = move.machineId ?? row.machineKey;
   const machine = await findMachine(sql, key.siteId, machineKey);
@@ -106,24 +110,24 @@ export async function moveRecording(services: CorrectionServices, key: ApiKeyRow
     throw problem('validation-failed', 'body: the recording is already filed at that point and time; nothing to move', { errors: [{ path: 'body', message: 'no change' }] });
   }
 
-  // analyse first, outside the transaction, as an upload does
-  const bytes = await getRecordingSamples(sql, row.id);
-  if (!bytes) throw problem('not-found', `no recording '${recordingId}' on this site`);
-  const channels = unpackSamples(bytes, row.channels.length);
-  const recording: Recording = {
-    sampleRateHz: row.sampleRateHz,
-    metadata: row.metadata,
-    channels: row.channels.map((c, i) => ({ name: c.name, unit: c.unit, samples: channels[i]! })),
-  };
+  if (row.samplesPurgedAt) {
+    throw problem('conflict', `recording '${recordingId}' cannot be analysed again where it would move: its raw samples were dropped on ${row.samplesPurgedAt.toISOString().slice(0, 10)} (KINESPEC_SAMPLE_RETENTION_DAYS)`);
+  }
+
+  // analyse first, outside the transaction, as the analysis job does (its samples count against the budget)
   const modelVersion = await modelVersionAt(sql, machine.id, recordedAt);
   const model = modelVersion === null ? null : await models.get(sql, machine.id, modelVersion);
-  const channel = await analysisChannelOf(sql, row.id);
-  const analysis: RecordingAnalysis = await runAnalysis(pool, recording, {
-    model,
-    pointId: to.pointKey,
-    ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
-    ...(channel !== null ? { channel: channel - 1 } : {}),
-  });
+  const release = services.budget?.admit(row.sampleCount * row.channels.length) ?? (() => {});
+  let analysis: RecordingAnalysis;
+  try {
+    const recording = await storedRecording(sql, row.id, row);
+    if (!recording) throw problem('not-found', `no recording '${recordingId}' on this site`);
+    analysis = await runAnalysis(pool, recording, analysisOptions(row, to, model));
+  } finally {
+    release();
+  }
+  const stored = analysisRow(row.id, modelVersion, analysis);
+  await ensureTrendMonth(sql, recordedAt);
 
   return sql.begin(async (tx) => {
     await lockPoints(tx, [row.pointId, to.id]);
@@ -139,9 +143,11 @@ export async function moveRecording(services: CorrectionServices, key: ApiKeyRow
       }
       throw err;
     }
-    const stored = await insertCurrentAnalysis(tx, { recordingId: row.id, modelVersion, analysis });
+    const inserted = await insertAnalysis(tx, stored);
+    // analysed now: a job still queued for it (an upload's) finds it done and stops
+    await setAnalysisState(tx, row.id, 'done');
     // the values move with the recording (writeTrendValues replaces them and rolls up the new day); the day left behind is rebuilt
-    await writeTrendValues(tx, { pointId: to.id, recordingId: row.id, analysisId: stored.id, recordedAt, indicators: analysis.indicators });
+    await writeTrendValues(tx, { pointId: to.id, recordingId: row.id, analysisId: inserted.id, recordedAt, indicators: analysis.indicators });
     await rebuildTrendDay(tx, row.pointId, row.recordedAt);
     const now = new Date();
     const why = `recording ${row.id} moved to ${machineKey}/${pointKey} at ${recordedAt.toISOString()}`;
@@ -157,6 +163,6 @@ export async function moveRecording(services: CorrectionServices, key: ApiKeyRow
       before,
       after: { machineId: machineKey, pointId: pointKey, recordedAt: recordedAt.toISOString() },
     });
-    return { audit, analysis: summarise(stored.id, analysis, row) };
+    return { audit, analysis: summarise(inserted.id, analysis, row) };
   });
 }

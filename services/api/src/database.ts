@@ -13,6 +13,8 @@ export interface Database {
   mode: 'server' | 'embedded';
   /** Where the data lives, for the start-up banner (password removed). */
   location: string;
+  /** The server's connection string (server mode), for libraries that open their own pool (the job queue). */
+  connectionString: string | null;
   close(): Promise<void>;
 }
 
@@ -29,6 +31,10 @@ const commonOptions = {
   onnotice: () => {},
   // every timestamp is compared and bucketed in UTC, whatever the server's default
   connection: { TimeZone: 'UTC', application_name: 'kinespec' },
+  // After a lost connection, try again within a second at most (the driver's default backs off to 20 s),
+  // so that the service is back within a few seconds of its database; each try costs one TCP connect.
+  backoff: (retries: number) => Math.min(0.05 * 2 ** retries, 1),
+  connect_timeout: 10,
 };
 
 function redact(url: string): string {
@@ -50,7 +56,7 @@ function redact(url: string): string {
 export async function openDatabase(options: OpenDatabaseOptions): Promise<Database> {
   if (options.databaseUrl) {
     const sql = postgres(options.databaseUrl, { ...commonOptions, max: options.poolMax ?? 10 }) as unknown as Sql;
-    return { sql, mode: 'server', location: redact(options.databaseUrl), close: () => sql.end({ timeout: 5 }) };
+    return { sql, mode: 'server', location: redact(options.databaseUrl), connectionString: options.databaseUrl, close: () => sql.end({ timeout: 5 }) };
   }
   const [{ PGlite }, { PGLiteSocketServer }] = await Promise.all([
     import('@electric-sql/pglite'),
@@ -74,6 +80,7 @@ export async function openDatabase(options: OpenDatabaseOptions): Promise<Databa
     sql,
     mode: 'embedded',
     location,
+    connectionString: null,
     async close() {
       try {
         await sql.end({ timeout: 5 });

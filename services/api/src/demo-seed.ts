@@ -163,6 +163,8 @@ export async function prepareDemo(app: FastifyInstance, options: DemoOptions): P
             'x-recorded-at': recordedAt.toISOString(),
             // a logger set up for the point states the unit its channel is in
             'x-unit': vibration.channels[0]!.unit,
+            // the demo's history is analysed as it is pushed, oldest first per point (RFC 7240 Prefer: wait)
+            prefer: 'wait=120',
           },
           payload: wav,
         });

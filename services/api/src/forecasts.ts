@@ -1,4 +1,4 @@
-import { findIndicator, indicatorLevels, type LevelPoint } from '@kinespec/diagnosis';
+import { findIndicator, type IndicatorLevels } from '@kinespec/diagnosis';
 import { FORECAST_METHOD, forecastCrossing, type Forecast } from '@kinespec/forecast';
 
 /*
@@ -32,12 +32,14 @@ export interface TrendForecast {
   forecasts: LevelForecast[];
 }
 
-/** The levels a trend is forecast against at a point: its zone boundaries, alarm and trip, and a value given. */
-export function levelsToForecast(indicator: string, point: LevelPoint, value: number | null): Array<{ level: LevelName; threshold: number }> {
+/**
+ * The levels a trend is forecast against at a point: its zone boundaries, alarm and trip (point-levels.ts levelsAt:
+ * the point's stored grading), and a value given.
+ */
+export function levelsToForecast(indicator: string, l: IndicatorLevels, value: number | null): Array<{ level: LevelName; threshold: number }> {
   const out: Array<{ level: LevelName; threshold: number }> = [];
   // speed and other indicators that do not grow with wear are forecast only against a value given
   if (findIndicator(indicator)?.worseWhen === 'up') {
-    const l = indicatorLevels(indicator, point);
     if (l.zoneBoundaries) out.push({ level: 'zone B', threshold: l.zoneBoundaries.ab }, { level: 'zone C', threshold: l.zoneBoundaries.bc }, { level: 'zone D', threshold: l.zoneBoundaries.cd });
     if (l.alarmLevel !== null) out.push({ level: 'alarm', threshold: l.alarmLevel });
     if (l.tripLevel !== null) out.push({ level: 'trip', threshold: l.tripLevel });

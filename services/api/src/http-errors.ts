@@ -1,6 +1,7 @@
 import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { hasZodFastifySchemaValidationErrors } from 'fastify-type-provider-zod';
-import { problem, ProblemError, recordingProblem, type FieldError } from './problems.js';
+import { DATABASE_RETRY_AFTER_S, isDatabaseUnavailable } from './database-errors.js';
+import { problem, ProblemError, problemUri, recordingProblem, type FieldError } from './problems.js';
 
 /*
  * Every error leaves as RFC 9457 application/problem+json from the registry in problems.ts.
@@ -22,6 +23,9 @@ const frameworkCodes: Record<string, (e: FastifyError) => ProblemError> = {
   FST_ERR_CTP_EMPTY_TYPE: () => problem('unsupported-media-type', 'the request has an empty Content-Type'),
   FST_ERR_CTP_INVALID_TYPE: () => problem('unsupported-media-type', 'the Content-Type is not valid'),
   FST_ERR_VALIDATION: (e) => problem('validation-failed', e.message),
+  FST_ERR_MAX_PARAM_LENGTH: () => problem('uri-too-long', 'a path segment is longer than the service accepts (ids are at most 64 characters)'),
+  FST_ERR_BAD_URL: () => problem('bad-request', 'the request path is not a valid URL component'),
+  FST_ERR_ASYNC_CONSTRAINT: () => problem('bad-request', 'the request cannot be routed'),
 };
 
 function byStatus(status: number, message: string): ProblemError {
@@ -30,9 +34,10 @@ function byStatus(status: number, message: string): ProblemError {
     case 403: return problem('forbidden', message);
     case 404: return problem('not-found', message);
     case 413: return problem('payload-too-large', message);
+    case 414: return problem('uri-too-long', message);
     case 415: return problem('unsupported-media-type', message);
     case 429: return problem('rate-limited', message);
-    case 503: return problem('service-unavailable', message);
+    case 503: return problem('service-unavailable', message, { headers: { 'retry-after': String(DATABASE_RETRY_AFTER_S) } });
     default: return problem('bad-request', message);
   }
 }
@@ -52,6 +57,11 @@ export function toProblem(error: unknown): ProblemError | null {
     const first = errors[0]!;
     return problem('validation-failed', `${first.path}: ${first.message}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, { errors });
   }
+  if (isDatabaseUnavailable(error)) {
+    return problem('service-unavailable', 'the database does not answer right now; retry after the time given', {
+      headers: { 'retry-after': String(DATABASE_RETRY_AFTER_S) },
+    });
+  }
   const e = error as Partial<FastifyError> & { name?: string; where?: string };
   if (e?.name === 'SignalInputError' && typeof e.code === 'string') return recordingProblem(e.code, e.message ?? '', e.where);
   if (typeof e?.code === 'string' && frameworkCodes[e.code]) return frameworkCodes[e.code]!(e as FastifyError);
@@ -66,6 +76,37 @@ export function sendProblem(reply: FastifyReply, request: FastifyRequest, p: Pro
     .code(p.status)
     .type('application/problem+json')
     .send(JSON.stringify(p.body(request.url.split('?')[0])));
+}
+
+/**
+ * Fastify's `frameworkErrors` option: errors the router raises before any route or error handler runs
+ * (a path segment over maxParamLength is 414, a malformed URL 400) leave as problems like every other.
+ */
+export function frameworkErrors(error: FastifyError, request: FastifyRequest, reply: FastifyReply): void {
+  sendProblem(reply, request, toProblem(error) ?? problem('bad-request', 'the request cannot be routed'));
+}
+
+/**
+ * Fastify's `clientErrorHandler`: a request the HTTP parser itself refuses (bad header syntax, headers over
+ * the size limit) is answered on the raw socket, still as problem+json.
+ */
+export function clientErrorHandler(err: NodeJS.ErrnoException, socket: import('node:net').Socket): void {
+  if (socket.destroyed) return;
+  if (err.code === 'ECONNRESET' || !socket.writable) {
+    socket.destroy(err);
+    return;
+  }
+  const tooLarge = err.code === 'HPE_HEADER_OVERFLOW';
+  const body = JSON.stringify({
+    type: problemUri('bad-request'),
+    title: 'The request is malformed',
+    status: 400,
+    detail: tooLarge ? 'the request headers are larger than the service accepts' : 'the HTTP request cannot be parsed',
+  });
+  socket.end(
+    `HTTP/1.1 400 Bad Request\r\nContent-Type: application/problem+json\r\n` +
+      `Content-Length: ${Buffer.byteLength(body)}\r\nConnection: close\r\n\r\n${body}`,
+  );
 }
 
 export function registerProblemHandlers(app: FastifyInstance): void {

@@ -1,6 +1,7 @@
 // Public surface of @kinespec/api: the HTTP service and its store.
 export { buildApp, type BuildAppOptions, type Services, type AppConfig } from './app.js';
 export { startService, type RunningService, type StartOptions } from './server.js';
+export { startWorker, type RunningWorker } from './worker.js';
 export { loadConfig, envVars, ConfigError, type ServiceConfig, type EnvVar } from './config.js';
 export { openDatabase, type Database, type Sql } from './database.js';
 export { migrate, pendingMigrations, readMigrations } from './migrate.js';

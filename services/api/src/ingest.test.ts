@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { RecordingAnalysis } from './analysis.js';
 import { storedAnalysisJson } from './ingest.js';
-import { packSamples, unpackSamples } from './samples-codec.js';
+import { packSamples, roundToFloat32, unpackSamples } from './samples-codec.js';
 
 describe('storedAnalysisJson', () => {
   const analysis = {
@@ -45,5 +45,13 @@ describe('packSamples', () => {
 
   it('refuses channels of different lengths', () => {
     expect(() => packSamples([[1, 2], [1]])).toThrow(/every channel must hold 2 samples/);
+  });
+});
+
+describe('roundToFloat32', () => {
+  it('gives in place exactly the values a pack and unpack round trip gives', () => {
+    const x = new Float64Array([0.1, -1 / 3, 1e-40, 3.4e38, 123456789.123, 0]);
+    const expected = unpackSamples(packSamples([x]), 1)[0]!;
+    expect(Array.from(roundToFloat32(x))).toEqual(Array.from(expected));
   });
 });

@@ -1,30 +1,26 @@
 import { createHash } from 'node:crypto';
-import { decodeRecording, recordedAtFromMetadata, recordingWarnings, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
+import { decodeRecording, recordingWarnings, SignalInputError, type DecodeHint, type Recording } from '@kinespec/signal';
 import type { AnalysisPool } from './analysis-pool.js';
-import { softwareVersion, type analyse, type RecordingAnalysis } from './analysis.js';
-import { evaluateAlarms } from './alarms.js';
+import type { analyse, RecordingAnalysis } from './analysis.js';
+import type { AnalysisQueue } from './analysis-queue.js';
 import type { Queryable, Sql } from './database.js';
-import type { ModelCache } from './model-cache.js';
 import { problem, ProblemError, recordingProblem } from './problems.js';
-import { packSamples, unpackSamples } from './samples-codec.js';
+import { recordedAtOf } from './recorded-at.js';
+import type { SampleBudget } from './sample-budget.js';
+import { packSamples, roundToFloat32 } from './samples-codec.js';
 import {
   findDuplicateRecording,
+  getAnalysisState,
   getCurrentAnalysis,
-  insertAnalysis,
   insertRecording,
-  lockPoint,
-  setAnalysisChannel,
-  modelVersionAt,
-  writeTrendValues,
   type ApiKeyRow,
   type MachineRow,
   type PointRow,
 } from './store.js';
 
 /*
- * Ingest: bytes in, one stored recording with its analysis, trend values and alarms out, in one
- * transaction. Decoding and analysis run before the transaction opens, so a bad body stores nothing
- * and a slow analysis holds no lock.
+ * Ingest: bytes in, one stored recording and its queued analysis out (ingestRecording below); the analysis,
+ * trend values and alarms are stored by the job (analysis-job.ts).
  */
 
 export interface UploadInput {
@@ -58,17 +54,17 @@ export interface AnalysisSummary {
 }
 
 export interface UploadResult {
-  status: 200 | 201;
-  body: { recordingId: string; duplicate: boolean; analysis: AnalysisSummary | null };
-  /** Milliseconds spent decoding, analysing (including the wait for a thread) and storing: a Server-Timing header. */
+  /** 201 stored and analysed, 200 a retry of a stored recording, 202 stored with its analysis still queued. */
+  status: 200 | 201 | 202;
+  body: { recordingId: string; duplicate: boolean; analysisState: 'queued' | 'done'; analysis: AnalysisSummary | null };
+  /** Milliseconds spent decoding, storing and waiting for the analysis: a Server-Timing header. */
   timings?: { decodeMs: number; analysisMs: number; storeMs: number };
 }
 
-export function summarise(
-  analysisId: string,
-  a: RecordingAnalysis,
-  recording: { metadata: Readonly<Record<string, string>>; channels: ReadonlyArray<{ name: string; unit: string }> },
-): AnalysisSummary {
+/** What an answer shows of the stored recording beside its analysis: the file's warnings and its channels. */
+export type RecordingFacts = { metadata: Readonly<Record<string, string>>; channels: ReadonlyArray<{ name: string; unit: string }> };
+
+export function summarise(analysisId: string, a: RecordingAnalysis, recording: RecordingFacts): AnalysisSummary {
   return {
     analysisId,
     velocityRmsMmPerS: finiteOrNull(a.overall?.velocityRmsMmPerS),
@@ -110,25 +106,6 @@ export async function runAnalysis(pool: AnalysisPool, recording: Recording, opti
   }
 }
 
-/** Stores an analysis as its recording's current one, with the columns the lists read. */
-export async function insertCurrentAnalysis(
-  tx: Queryable,
-  a: { recordingId: string; modelVersion: number | null; analysis: RecordingAnalysis; resultJson?: string },
-): Promise<{ id: string; createdAt: Date }> {
-  const top = a.analysis.hypotheses[0];
-  return insertAnalysis(tx, {
-    recordingId: a.recordingId,
-    modelVersion: a.modelVersion,
-    softwareVersion: a.analysis.softwareVersion ?? softwareVersion(),
-    speedHz: finite(a.analysis.speedHz),
-    speedSource: a.analysis.speedSource,
-    velocityRmsMmPerS: finite(a.analysis.overall.velocityRmsMmPerS),
-    zone: a.analysis.overall.zone,
-    topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-    resultJson: a.resultJson ?? storedAnalysisJson(a.analysis),
-  });
-}
-
 /** Significant digits kept of the plot spectra and evidence in a stored analysis. */
 export const STORED_SIGNIFICANT_DIGITS = 6;
 
@@ -157,8 +134,15 @@ function isUniqueViolation(err: unknown): boolean {
   return typeof err === 'object' && err !== null && (err as { code?: string }).code === '23505';
 }
 
+/** What an upload needs of the service. */
+export interface IngestServices {
+  sql: Sql;
+  queue: AnalysisQueue;
+  budget?: SampleBudget;
+}
+
 /** The 1-based number of the channel a request names by number or name; the problem lists the channels. */
-export function channelNumber(recording: Recording, selector: string): number {
+export function channelNumber(recording: Pick<Recording, 'channels'>, selector: string): number {
   const byName = recording.channels.findIndex((c) => c.name === selector);
   if (byName >= 0) return byName + 1;
   const n = Number(selector);
@@ -169,11 +153,42 @@ export function channelNumber(recording: Recording, selector: string): number {
   });
 }
 
-function recordedAtOf(input: UploadInput, recording: Recording): Date {
-  return input.recordedAt ?? recordedAtFromMetadata(recording.metadata) ?? new Date();
+/**
+ * The answer an upload gives once its recording is stored: 201 (or 200 for a retry) with the analysis when it
+ * was stored within `waitMs`, the analysis problem (422, with the recording id) when the recording cannot be
+ * analysed, else 202: the recording is safe and its analysis follows (poll its Location).
+ */
+async function answerFor(
+  services: IngestServices,
+  stored: { id: string; facts: RecordingFacts },
+  duplicate: boolean,
+  waitMs: number,
+  timings?: UploadResult['timings'],
+): Promise<UploadResult> {
+  const recordingId = stored.id;
+  const t0 = performance.now();
+  const state = await services.queue.waitFor(recordingId, waitMs);
+  const waited = performance.now() - t0;
+  const withWait = timings ? { ...timings, analysisMs: waited } : undefined;
+  if (state === 'failed') {
+    const row = await getAnalysisState(services.sql, recordingId);
+    const p = row?.problem ?? { slug: 'analysis-failed', detail: 'the recording could not be analysed' };
+    throw new ProblemError(p.slug, p.detail, { recordingId, ...(p.code ? { code: p.code } : {}) });
+  }
+  const current = state === 'done' ? await getCurrentAnalysis(services.sql, recordingId) : null;
+  return {
+    status: state === 'queued' ? 202 : duplicate ? 200 : 201,
+    body: {
+      recordingId,
+      duplicate,
+      analysisState: state === 'queued' ? 'queued' : 'done',
+      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis, stored.facts) : null,
+    },
+    ...(withWait ? { timings: withWait } : {}),
+  };
 }
 
-async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer): Promise<UploadResult | null> {
+async function duplicateOf(sql: Queryable, input: UploadInput, contentHash: Buffer): Promise<{ id: string; facts: RecordingFacts } | null> {
   const earlier = await findDuplicateRecording(sql, {
     siteId: input.key.siteId,
     pointId: input.point.id,
@@ -187,102 +202,81 @@ async function duplicateResult(sql: Sql, input: UploadInput, contentHash: Buffer
       `Idempotency-Key '${input.idempotencyKey}' was first used for recording ${earlier.id} with other content or another point; use a new key for new content`,
     );
   }
-  const current = await getCurrentAnalysis(sql, earlier.id);
-  return {
-    status: 200,
-    body: {
-      recordingId: earlier.id,
-      duplicate: true,
-      analysis: current ? summarise(current.id, current.result as unknown as RecordingAnalysis, earlier) : null,
-    },
-  };
+  return { id: earlier.id, facts: earlier };
 }
 
-export async function ingestRecording(
-  { sql, models, analysis: pool }: { sql: Sql; models: ModelCache; analysis: AnalysisPool },
-  input: UploadInput,
-): Promise<UploadResult> {
+/**
+ * Ingest: bytes in, one stored recording and its queued analysis out. Decoding comes first, so a bad body
+ * stores nothing; then one transaction stores the recording (with the channel the request named) and sends its
+ * analysis job (analysis-queue.ts). From the commit on the recording is durable: the answer then waits up to
+ * `waitMs` for the analysis.
+ */
+export async function ingestRecording(services: IngestServices, input: UploadInput, waitMs: number): Promise<UploadResult> {
+  const { sql } = services;
   const contentHash = createHash('sha256').update(input.bytes).digest();
-  const retry = await duplicateResult(sql, input, contentHash);
-  if (retry) return retry;
+  const earlier = await duplicateOf(sql, input, contentHash);
+  if (earlier) return answerFor(services, earlier, true, waitMs);
 
   const t0 = performance.now();
   const decoded = decodeBody(input.bytes, input.hint);
-  const sampleCount = decoded.channels[0]?.samples.length ?? 0;
-  const samples = packSamples(decoded.channels.map((c) => c.samples));
-  // analyse exactly what is stored (float32), so a re-analysis of the same version repeats the result
-  const stored = unpackSamples(samples, decoded.channels.length);
-  const recording: Recording = {
-    sampleRateHz: decoded.sampleRateHz,
-    metadata: decoded.metadata,
-    channels: decoded.channels.map((c, i) => ({
-      name: c.name,
-      // a channel whose file states no unit stays 'unknown': the analysis reads it in the point's unit and says so
-      unit: c.unit,
-      samples: stored[i]!,
-    })),
-  };
-  const channel = input.channel ? channelNumber(recording, input.channel) : null;
-  const recordedAt = recordedAtOf(input, recording);
-  const modelVersion = await modelVersionAt(sql, input.machine.id, recordedAt);
-  const model = modelVersion === null ? null : await models.get(sql, input.machine.id, modelVersion);
-  const t1 = performance.now();
-  const analysis = await runAnalysis(pool, recording, {
-    model,
-    pointId: input.point.pointKey,
-    ...(input.speedRpm !== null ? { speedRpm: input.speedRpm } : {}),
-    ...(channel !== null ? { channel: channel - 1 } : {}),
-  });
-  const resultJson = storedAnalysisJson(analysis);
-  const t2 = performance.now();
-
+  const release = services.budget?.admit(decoded.channels.reduce((n, c) => n + c.samples.length, 0)) ?? (() => {});
+  let recordingId: string;
+  let recording: Recording;
+  let t1: number;
+  let t2: number;
   try {
-    return await sql.begin(async (tx) => {
-      const recordingId = await insertRecording(tx, {
-        siteId: input.key.siteId,
-        pointId: input.point.id,
-        recordedAt,
-        sampleRateHz: recording.sampleRateHz,
-        sampleCount,
-        channels: recording.channels.map((c) => ({ name: c.name, unit: c.unit })),
-        samples,
-        contentHash,
-        idempotencyKey: input.idempotencyKey,
-        sourceFormat: input.sourceFormat,
-        speedRpm: input.speedRpm,
-        metadata: recording.metadata,
-        uploadedBy: input.key.id,
+    const sampleCount = decoded.channels[0]?.samples.length ?? 0;
+    const samples = packSamples(decoded.channels.map((c) => c.samples));
+    // analyse exactly what is stored (float32), so a re-analysis of the same version repeats the result:
+    // rounded in place (the decoder's arrays are ours), not unpacked into a second copy of the recording
+    recording = {
+      sampleRateHz: decoded.sampleRateHz,
+      metadata: decoded.metadata,
+      channels: decoded.channels.map((c) => ({
+        name: c.name,
+        // a channel whose file states no unit stays 'unknown': the analysis reads it in the point's unit and says so
+        unit: c.unit,
+        samples: roundToFloat32(c.samples),
+      })),
+    };
+    const channel = input.channel ? channelNumber(recording, input.channel) : null;
+    const recordedAt = recordedAtOf(input.recordedAt, recording);
+    const toStore = recording;
+    t1 = performance.now();
+    try {
+      recordingId = await sql.begin(async (tx) => {
+        const id = await insertRecording(tx, {
+          siteId: input.key.siteId,
+          pointId: input.point.id,
+          recordedAt,
+          sampleRateHz: toStore.sampleRateHz,
+          sampleCount,
+          channels: toStore.channels.map((c) => ({ name: c.name, unit: c.unit })),
+          samples,
+          contentHash,
+          idempotencyKey: input.idempotencyKey,
+          sourceFormat: input.sourceFormat,
+          speedRpm: input.speedRpm,
+          metadata: toStore.metadata,
+          uploadedBy: input.key.id,
+          analysisState: 'queued',
+          analysisChannel: channel,
+        });
+        await services.queue.enqueueIn(tx, id);
+        return id;
       });
-      if (channel !== null) await setAnalysisChannel(tx, recordingId, channel);
-      const stored = await insertCurrentAnalysis(tx, { recordingId, modelVersion, analysis, resultJson });
-      // only the point's roll-up and alarms need one writer at a time; the large rows above do not
-      await lockPoint(tx, input.point.id);
-      await writeTrendValues(tx, {
-        pointId: input.point.id,
-        recordingId,
-        analysisId: stored.id,
-        recordedAt,
-        indicators: analysis.indicators,
-      });
-      await evaluateAlarms(tx, {
-        siteId: input.key.siteId,
-        point: input.point,
-        recordingId,
-        recordedAt,
-        indicators: analysis.indicators,
-      });
-      return {
-        status: 201 as const,
-        body: { recordingId, duplicate: false, analysis: summarise(stored.id, analysis, recording) },
-        timings: { decodeMs: t1 - t0, analysisMs: t2 - t1, storeMs: performance.now() - t2 },
-      };
-    });
-  } catch (err) {
-    // a concurrent retry won the race to the unique index: answer as the retry it is
-    if (isUniqueViolation(err)) {
-      const again = await duplicateResult(sql, input, contentHash);
-      if (again) return again;
+    } catch (err) {
+      // a concurrent retry won the race to the unique index: answer as the retry it is
+      if (isUniqueViolation(err)) {
+        const again = await duplicateOf(sql, input, contentHash);
+        if (again) return answerFor(services, again, true, waitMs);
+      }
+      throw err;
     }
-    throw err;
+    t2 = performance.now();
+    services.queue.offerLocal(recordingId, recording);
+  } finally {
+    release();
   }
+  return answerFor(services, { id: recordingId, facts: recording }, false, waitMs, { decodeMs: t1 - t0, storeMs: t2 - t1, analysisMs: 0 });
 }

@@ -25,13 +25,17 @@ const general = [
   { slug: 'idempotency-key-reused', status: 409, title: 'The Idempotency-Key was already used for different content' },
   { slug: 'conflict', status: 409, title: 'The change clashes with what is stored' },
   { slug: 'payload-too-large', status: 413, title: 'The request body is larger than the service accepts' },
+  { slug: 'uri-too-long', status: 414, title: 'A part of the request path is longer than the service accepts' },
   { slug: 'unsupported-media-type', status: 415, title: 'The content type is not one the route accepts' },
   { slug: 'invalid-machine-model', status: 422, title: 'The machine model file has problems' },
   { slug: 'no-machine-model', status: 422, title: 'The machine has no model version to analyse against' },
   { slug: 'analysis-failed', status: 422, title: 'The recording could not be analysed' },
   { slug: 'recording-invalid', status: 422, title: 'The recording cannot be used' },
+  { slug: 'recorded-in-future', status: 422, title: 'The recording is dated more than a day in the future' },
+  { slug: 'time-out-of-range', status: 400, title: 'A time lies outside the range the service accepts' },
   { slug: 'rate-limited', status: 429, title: 'Too many requests; retry after the time given' },
   { slug: 'internal-error', status: 500, title: 'The service failed unexpectedly' },
+  { slug: 'analysis-timed-out', status: 503, title: 'The analysis took longer than the service allows' },
   { slug: 'service-unavailable', status: 503, title: 'The service is starting, stopping or cannot reach its database' },
 ] as const satisfies readonly ProblemType[];
 

@@ -1,88 +1,39 @@
-import type { Recording } from '@kinespec/signal';
-import { softwareVersion, type RecordingAnalysis } from './analysis.js';
-import { evaluateAlarms } from './alarms.js';
+import type { AnalysisQueue } from './analysis-queue.js';
 import type { Sql } from './database.js';
-import { finite, runAnalysis, storedAnalysisJson } from './ingest.js';
-import type { AnalysisPool } from './analysis-pool.js';
-import type { ModelCache } from './model-cache.js';
 import { problem } from './problems.js';
-import { unpackSamples } from './samples-codec.js';
-import {
-  analysisChannelOf,
-  getPointById,
-  getRecording,
-  getRecordingSamples,
-  insertAnalysis,
-  listMachineRecordingIds,
-  lockPoint,
-  writeTrendValues,
-  type MachineRow,
-  type PointRow,
-} from './store.js';
+import { createReanalysis, getReanalysis, listMachineRecordingIds, type MachineRow, type ReanalysisRow } from './store.js';
 
-/**
- * Analyses every stored recording of a machine again against its current model version. Each new
- * analysis becomes current; the earlier ones stay, with the model and software versions that made them.
- * Recordings are done one at a time, each in its own transaction, oldest first.
+/*
+ * Re-analysis of a machine: every stored recording analysed again against the machine's current model version,
+ * as jobs of the analysis queue (analysis-job.ts), one per recording, sent with the request's row in one
+ * transaction. Each new analysis becomes current; earlier ones stay with the model and software versions that
+ * made them. GET /api/v1/reanalyses/{id} gives the progress.
  */
-export async function reanalyseMachine(
-  { sql, models, analysis: pool }: { sql: Sql; models: ModelCache; analysis: AnalysisPool },
+
+export async function startReanalysis(
+  services: { sql: Sql; queue: AnalysisQueue },
   machine: MachineRow,
-): Promise<{ analysed: number; failed: Array<{ recordingId: string; reason: string }>; modelVersion: number }> {
+  createdBy: string | null,
+): Promise<string> {
   const version = machine.currentModelVersion;
   if (version === null) throw problem('no-machine-model', `machine '${machine.machineKey}' has no model version yet`);
-  const model = await models.get(sql, machine.id, version);
-  const points = new Map<number, PointRow>();
-  const failed: Array<{ recordingId: string; reason: string }> = [];
-  let analysed = 0;
-  for (const { id, pointId } of await listMachineRecordingIds(sql, machine.id)) {
-    let point = points.get(pointId);
-    if (!point) {
-      point = (await getPointById(sql, pointId))!;
-      points.set(pointId, point);
-    }
-    const row = await getRecording(sql, machine.siteId, id);
-    const bytes = await getRecordingSamples(sql, id);
-    if (!row || !bytes) continue;
-    const channels = unpackSamples(bytes, row.channels.length);
-    const recording: Recording = {
-      sampleRateHz: row.sampleRateHz,
-      metadata: row.metadata,
-      channels: row.channels.map((c, i) => ({ name: c.name, unit: c.unit, samples: channels[i]! })),
-    };
-    let analysis: RecordingAnalysis;
-    try {
-      // the channel an upload chose (1-based in the store) is analysed again
-      const channel = await analysisChannelOf(sql, id);
-      analysis = await runAnalysis(pool, recording, {
-        model,
-        pointId: point.pointKey,
-        ...(row.speedRpm !== null ? { speedRpm: row.speedRpm } : {}),
-        ...(channel !== null ? { channel: channel - 1 } : {}),
-      });
-    } catch (err) {
-      failed.push({ recordingId: id, reason: err instanceof Error ? err.message : String(err) });
-      continue;
-    }
-    const top = analysis.hypotheses[0];
-    const p = point;
-    await sql.begin(async (tx) => {
-      await lockPoint(tx, pointId);
-      const stored = await insertAnalysis(tx, {
-        recordingId: id,
-        modelVersion: version,
-        softwareVersion: analysis.softwareVersion ?? softwareVersion(),
-        speedHz: finite(analysis.speedHz),
-        speedSource: analysis.speedSource,
-        velocityRmsMmPerS: finite(analysis.overall.velocityRmsMmPerS),
-        zone: analysis.overall.zone,
-        topHypothesis: top ? { fault: top.fault, component: top.component, score: top.score, reason: top.reason } : null,
-        resultJson: storedAnalysisJson(analysis),
-      });
-      await writeTrendValues(tx, { pointId, recordingId: id, analysisId: stored.id, recordedAt: row.recordedAt, indicators: analysis.indicators });
-      await evaluateAlarms(tx, { siteId: machine.siteId, point: p, recordingId: id, recordedAt: row.recordedAt, indicators: analysis.indicators });
-    });
-    analysed++;
-  }
-  return { analysed, failed, modelVersion: version };
+  const recordings = await listMachineRecordingIds(services.sql, machine.id);
+  const id = await services.sql.begin(async (tx) => {
+    const reanalysisId = await createReanalysis(tx, { machineId: machine.id, modelVersion: version, total: recordings.length, createdBy });
+    await services.queue.enqueueReanalysisIn(tx, reanalysisId, recordings.map((r) => r.id));
+    return reanalysisId;
+  });
+  services.queue.kick();
+  return id;
+}
+
+/** Waits up to `ms` for a re-analysis to finish; returns its row as it then stands. */
+export async function awaitReanalysis(services: { sql: Sql; queue: AnalysisQueue }, siteId: string, id: string, ms: number): Promise<ReanalysisRow> {
+  let row: ReanalysisRow | null = null;
+  await services.queue.waitUntil(id, ms, async () => {
+    row = await getReanalysis(services.sql, siteId, id);
+    return row === null || row.finishedAt !== null;
+  });
+  if (!row) throw problem('not-found', `no re-analysis '${id}' on this site`);
+  return row;
 }

@@ -42,3 +42,9 @@ export function unpackSamples(bytes: Uint8Array, channelCount: number): Float64A
   }
   return channels;
 }
+
+/** Rounds every sample to the float32 nearest it, in place: the values unpackSamples(packSamples(x)) gives. */
+export function roundToFloat32(samples: Float64Array): Float64Array {
+  for (let i = 0; i < samples.length; i++) samples[i] = Math.fround(samples[i]!);
+  return samples;
+}

@@ -12,9 +12,19 @@ export const hypothesisRefSchema = z.looseObject({
   score: z.number(),
 });
 
+/** Years a time in a request may name: four-digit ISO 8601 years, all inside PostgreSQL's timestamptz range. */
+const MIN_YEAR = 1;
+const MAX_YEAR = 9999;
+
 export const isoTime = z
   .string()
-  .refine((s) => !Number.isNaN(Date.parse(s)), 'must be an ISO 8601 date or date-time, e.g. 2025-03-14T08:00:00Z')
+  .max(64)
+  .refine((s) => {
+    const t = parseTime(s).getTime();
+    if (Number.isNaN(t)) return false;
+    const year = new Date(t).getUTCFullYear();
+    return year >= MIN_YEAR && year <= MAX_YEAR;
+  }, `must be an ISO 8601 date or date-time in the years ${MIN_YEAR}-${MAX_YEAR}, e.g. 2025-03-14T08:00:00Z`)
   .describe('ISO 8601 date or date-time (UTC when no offset is given)');
 
 /** "2025-03-14" and "2025-03-14T08:00" read as UTC; an explicit offset is kept. */
@@ -38,6 +48,8 @@ export const analysisSummarySchema = z.object({
 export const uploadResultSchema = z.object({
   recordingId: z.string(),
   duplicate: z.boolean(),
+  /** 'queued': stored, its analysis still to come (202); poll GET /recordings/{id}/analysis. */
+  analysisState: z.enum(['queued', 'done']),
   analysis: analysisSummarySchema.nullable(),
 });
 
@@ -113,4 +125,13 @@ export function iso(d: Date): string;
 export function iso(d: Date | null): string | null;
 export function iso(d: Date | null): string | null {
   return d === null ? null : d.toISOString();
+}
+
+/** The longest wait a request may ask for with Prefer: wait=N (RFC 7240 §4.3). */
+const MAX_PREFER_WAIT_S = 120;
+
+/** How long a request waits for queued work: its Prefer: wait=N seconds (RFC 7240) when given, else `configuredMs`. */
+export function preferredWaitMs(prefer: string | string[] | undefined, configuredMs: number): number {
+  const m = typeof prefer === 'string' ? /(?:^|[;,\s])wait=(\d+)/i.exec(prefer) : null;
+  return m ? Math.min(Number(m[1]), MAX_PREFER_WAIT_S) * 1000 : configuredMs;
 }

@@ -9,6 +9,7 @@ import { openDatabase, type Database } from './database.js';
 import { DEMO_SITE_NAME, prepareDemo, type DemoStatus } from './demo-seed.js';
 import { terminalLogStream } from './log-format.js';
 import { migrate } from './migrate.js';
+import { scheduleSampleRetention } from './sample-retention.js';
 
 /*
  * The running service: database (server or embedded), migrations, the first site and its admin key,
@@ -51,14 +52,17 @@ export async function startService(config: ServiceConfig, options: StartOptions 
     const applied = await migrate(db.sql);
     if (logger && applied.length) logger.info({ applied }, 'migrations applied');
     const demoWanted = config.demo === 'on' || (config.demo === 'auto' && db.mode === 'embedded');
-    const boot = await bootstrap(db.sql, { adminKey: config.adminKey, siteName: demoWanted ? DEMO_SITE_NAME : 'Kinespec site' });
+    const boot = await bootstrap(db.sql, { adminKey: config.adminKey, platformKey: config.platformKey, siteName: demoWanted ? DEMO_SITE_NAME : 'Kinespec site' });
     const app = await buildApp({
       sql: db.sql,
-      config: { ...config, consoleDir: consoleDir(config.consoleDir) },
+      connectionString: db.connectionString,
+      config: { ...config, consoleDir: consoleDir(config.consoleDir), dbPoolMax: db.mode === 'embedded' ? 1 : config.dbPoolMax },
       logger: logger || false,
       readiness: () => (demo?.state === 'seeding' ? `the demo site is still being seeded (${demo.recordingsDone} of ${demo.recordingsTotal} recordings)` : null),
       demoStatus: () => demo,
     });
+    const stopRetention = scheduleSampleRetention(db.sql, config.sampleRetentionDays, (err) => logger && logger.warn({ err: String(err) }, 'sample retention'));
+    app.addHook('onClose', async () => stopRetention());
     await app.listen({ port: config.port, host: config.host });
     const address = app.server.address();
     const port = typeof address === 'object' && address ? address.port : config.port;

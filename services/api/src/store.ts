@@ -17,7 +17,7 @@ export function isUuid(id: string): boolean {
 
 // ---------------------------------------------------------------- sites and keys
 
-export type Role = 'logger' | 'engineer' | 'admin';
+export type Role = 'logger' | 'engineer' | 'admin' | 'platform';
 
 export interface ApiKeyRow {
   id: string;
@@ -56,6 +56,39 @@ export async function insertApiKey(
     on conflict (key_hash) do update set key_hash = excluded.key_hash
     returning id, site_id as "siteId", role, label`;
   return row!;
+}
+
+export interface ApiKeyListRow extends ApiKeyRow {
+  createdAt: Date;
+  lastUsedAt: Date | null;
+  revokedAt: Date | null;
+  replacedBy: string | null;
+}
+
+/** Every key of a site (never another's), newest first; the hashes stay in the store. */
+export async function listApiKeys(sql: Queryable, siteId: string): Promise<ApiKeyListRow[]> {
+  return sql<ApiKeyListRow[]>`
+    select id, site_id as "siteId", role, label, created_at as "createdAt", last_used_at as "lastUsedAt",
+      revoked_at as "revokedAt", replaced_by as "replacedBy"
+    from api_keys where site_id = ${siteId} order by created_at desc, id`;
+}
+
+/** Revokes a key of the site; null when the site has no such key. Revoking again keeps the first time. */
+export async function revokeApiKey(sql: Queryable, siteId: string, keyId: string, replacedBy: string | null = null): Promise<ApiKeyListRow | null> {
+  if (!isUuid(keyId)) return null;
+  const [row] = await sql<ApiKeyListRow[]>`
+    update api_keys set revoked_at = coalesce(revoked_at, now()), replaced_by = coalesce(${replacedBy}, replaced_by)
+    where id = ${keyId} and site_id = ${siteId}
+    returning id, site_id as "siteId", role, label, created_at as "createdAt", last_used_at as "lastUsedAt",
+      revoked_at as "revokedAt", replaced_by as "replacedBy"`;
+  return row ?? null;
+}
+
+/** Notes that a key was used; written at most once a minute per key so that busy loggers cost no writes. */
+export async function touchApiKey(sql: Queryable, keyId: string): Promise<void> {
+  await sql`
+    update api_keys set last_used_at = now()
+    where id = ${keyId} and (last_used_at is null or last_used_at < now() - interval '1 minute')`;
 }
 
 export async function findApiKey(sql: Queryable, keyHash: Buffer): Promise<ApiKeyRow | null> {
@@ -251,6 +284,10 @@ export interface RecordingRow {
   sourceFormat: string;
   speedRpm: number | null;
   metadata: Record<string, string>;
+  /** When the retention setting dropped the raw samples; null while they are kept. */
+  samplesPurgedAt: Date | null;
+  /** The channel (1-based) the upload asked the analysis to read, or null when the analysis chooses; re-analyses read it too. */
+  analysisChannel: number | null;
 }
 
 export interface NewRecording {
@@ -267,13 +304,18 @@ export interface NewRecording {
   speedRpm: number | null;
   metadata: Record<string, string>;
   uploadedBy: string | null;
+  /** 'queued' when a job of the analysis queue will analyse it. */
+  analysisState?: 'queued' | 'done';
+  /** The channel (1-based) to analyse; null or absent lets the analysis choose. */
+  analysisChannel?: number | null;
 }
 
 const recordingColumns = (sql: Queryable) => sql`
   r.id, r.site_id as "siteId", r.point_id as "pointId", m.machine_key as "machineKey", p.point_key as "pointKey",
   r.recorded_at as "recordedAt", r.received_at as "receivedAt", r.sample_rate_hz as "sampleRateHz",
   r.sample_count as "sampleCount", r.channels, r.content_hash as "contentHash", r.idempotency_key as "idempotencyKey",
-  r.source_format as "sourceFormat", r.speed_rpm as "speedRpm", r.metadata`;
+  r.source_format as "sourceFormat", r.speed_rpm as "speedRpm", r.metadata, r.samples_purged_at as "samplesPurgedAt",
+  r.analysis_channel as "analysisChannel"`;
 
 /** Serialises every write that touches one point's trends and alarms (ingest, re-analysis). */
 export async function lockPoint(tx: Queryable, pointId: number): Promise<void> {
@@ -303,10 +345,10 @@ export async function findDuplicateRecording(
 export async function insertRecording(tx: Queryable, r: NewRecording): Promise<string> {
   const [row] = await tx<{ id: string }[]>`
     insert into recordings (site_id, point_id, recorded_at, sample_rate_hz, sample_count, channels, samples,
-      content_hash, idempotency_key, source_format, speed_rpm, metadata, uploaded_by)
+      content_hash, idempotency_key, source_format, speed_rpm, metadata, uploaded_by, analysis_state, analysis_channel)
     values (${r.siteId}, ${r.pointId}, ${r.recordedAt}, ${r.sampleRateHz}, ${r.sampleCount}, ${json(tx, r.channels)},
       decode(${r.samples.toString('base64')}, 'base64'), ${r.contentHash}, ${r.idempotencyKey}, ${r.sourceFormat}, ${r.speedRpm}, ${json(tx, r.metadata)},
-      ${r.uploadedBy})
+      ${r.uploadedBy}, ${r.analysisState ?? 'done'}, ${r.analysisChannel ?? null})
     returning id`;
   return row!.id;
 }
@@ -317,6 +359,54 @@ export async function getRecording(sql: Queryable, siteId: string, recordingId: 
     select ${recordingColumns(sql)} from recordings r join points p on p.id = r.point_id join machines m on m.id = p.machine_id
     where r.id = ${recordingId} and r.site_id = ${siteId}`;
   return row ?? null;
+}
+
+export type AnalysisState = 'queued' | 'done' | 'failed';
+
+/** Where a recording's analysis stands, and the problem it failed with; null for an unknown id. */
+export async function getAnalysisState(
+  sql: Queryable,
+  recordingId: string,
+): Promise<{ state: AnalysisState; problem: { slug: string; detail: string; code?: string } | null } | null> {
+  const [row] = await sql<{ state: AnalysisState; problem: { slug: string; detail: string; code?: string } | null }[]>`
+    select analysis_state as state, analysis_problem as problem from recordings where id = ${recordingId}`;
+  return row ?? null;
+}
+
+export async function setAnalysisState(
+  tx: Queryable,
+  recordingId: string,
+  state: AnalysisState,
+  problem: { slug: string; detail: string; code?: string } | null = null,
+): Promise<void> {
+  await tx`update recordings set analysis_state = ${state}, analysis_problem = ${problem === null ? null : json(tx, problem)} where id = ${recordingId}`;
+}
+
+/** What a worker needs of a queued recording: the row, its point and machine. */
+export async function recordingForAnalysis(
+  sql: Queryable,
+  recordingId: string,
+): Promise<(RecordingRow & { machineId: number; state: AnalysisState }) | null> {
+  const [row] = await sql<(RecordingRow & { machineId: number; state: AnalysisState })[]>`
+    select ${recordingColumns(sql)}, m.id as "machineId", r.analysis_state as state
+    from recordings r join points p on p.id = r.point_id join machines m on m.id = p.machine_id
+    where r.id = ${recordingId}`;
+  return row ?? null;
+}
+
+/**
+ * Drops the raw samples of up to `limit` analysed recordings taken before `before` (the retention setting);
+ * returns how many. Rows, analyses and trends stay. Replicas running it at once skip each other's rows.
+ */
+export async function purgeSamples(sql: Queryable, before: Date, limit: number): Promise<number> {
+  const rows = await sql`
+    update recordings set samples = ''::bytea, samples_purged_at = now()
+    where id in (
+      select id from recordings
+      where recorded_at < ${before} and samples_purged_at is null and analysis_state <> 'queued'
+      order by recorded_at limit ${limit} for update skip locked)
+    returning id`;
+  return rows.count;
 }
 
 export async function getRecordingSamples(sql: Queryable, recordingId: string): Promise<Buffer | null> {
@@ -362,6 +452,64 @@ export async function listMachineRecordingIds(
     where p.machine_id = ${machineId} order by r.recorded_at, r.id`;
 }
 
+// ---------------------------------------------------------------- re-analyses
+
+export interface ReanalysisRow {
+  id: string;
+  machineId: number;
+  machineKey: string;
+  modelVersion: number;
+  total: number;
+  analysed: number;
+  failed: Array<{ recordingId: string; reason: string }>;
+  createdAt: Date;
+  finishedAt: Date | null;
+}
+
+export async function createReanalysis(tx: Queryable, r: { machineId: number; modelVersion: number; total: number; createdBy: string | null }): Promise<string> {
+  const [row] = await tx<{ id: string }[]>`
+    insert into reanalyses (machine_id, model_version, total, created_by, finished_at)
+    values (${r.machineId}, ${r.modelVersion}, ${r.total}, ${r.createdBy}, ${r.total === 0 ? new Date() : null})
+    returning id`;
+  return row!.id;
+}
+
+/** The re-analysis of a site's machine with its progress; null for another site's or an unknown id. */
+export async function getReanalysis(sql: Queryable, siteId: string | null, id: string): Promise<ReanalysisRow | null> {
+  if (!isUuid(id)) return null;
+  const [row] = await sql<ReanalysisRow[]>`
+    select r.id, r.machine_id as "machineId", m.machine_key as "machineKey", r.model_version as "modelVersion", r.total,
+      (select count(*)::int from reanalysis_items i where i.reanalysis_id = r.id and i.failure is null) as analysed,
+      coalesce((select jsonb_agg(jsonb_build_object('recordingId', i.recording_id, 'reason', i.failure) order by i.done_at)
+        from reanalysis_items i where i.reanalysis_id = r.id and i.failure is not null), '[]'::jsonb) as failed,
+      r.created_at as "createdAt", r.finished_at as "finishedAt"
+    from reanalyses r join machines m on m.id = r.machine_id
+    where r.id = ${id} and (${siteId}::uuid is null or m.site_id = ${siteId}::uuid)`;
+  return row ?? null;
+}
+
+/**
+ * Records one recording of a re-analysis as done (failure null) or failed; false when it was recorded
+ * already (a repeated job). Marks the re-analysis finished with its last item.
+ */
+export async function recordReanalysisItem(tx: Queryable, reanalysisId: string, recordingId: string, failure: string | null): Promise<boolean> {
+  const inserted = await tx`
+    insert into reanalysis_items (reanalysis_id, recording_id, failure) values (${reanalysisId}, ${recordingId}, ${failure})
+    on conflict do nothing returning recording_id`;
+  if (inserted.count === 0) return false;
+  await tx`
+    update reanalyses set finished_at = now()
+    where id = ${reanalysisId} and finished_at is null
+      and (select count(*) from reanalysis_items where reanalysis_id = ${reanalysisId}) >= total`;
+  return true;
+}
+
+export async function reanalysisItemDone(sql: Queryable, reanalysisId: string, recordingId: string): Promise<boolean> {
+  const [row] = await sql<{ done: boolean }[]>`
+    select exists (select 1 from reanalysis_items where reanalysis_id = ${reanalysisId} and recording_id = ${recordingId}) as done`;
+  return row!.done;
+}
+
 // ---------------------------------------------------------------- analyses
 
 export interface StoredAnalysis {
@@ -382,6 +530,10 @@ export interface NewAnalysis {
   speedSource: string | null;
   velocityRmsMmPerS: number | null;
   zone: string | null;
+  /** The analysis's own grading of the overall velocity (alarm-row.ts): stored, never derived again. */
+  alarmState: 'normal' | 'alarm' | 'trip' | null;
+  alarmLevelMmPerS: number | null;
+  tripLevelMmPerS: number | null;
   topHypothesis: { fault: string; component: string; score: number; reason: string } | null;
   /** The RecordingAnalysis as JSON text (made once by the caller, cast to jsonb here). */
   resultJson: string;
@@ -392,9 +544,10 @@ export async function insertAnalysis(tx: Queryable, a: NewAnalysis): Promise<{ i
   await tx`update analyses set is_current = false where recording_id = ${a.recordingId} and is_current`;
   const [row] = await tx<{ id: string; createdAt: Date }[]>`
     insert into analyses (recording_id, model_version, software_version, is_current, speed_hz, speed_source,
-      velocity_rms_mm_per_s, zone, top_hypothesis, result)
+      velocity_rms_mm_per_s, zone, alarm_state, alarm_level_mm_per_s, trip_level_mm_per_s, top_hypothesis, result)
     values (${a.recordingId}, ${a.modelVersion}, ${a.softwareVersion}, true, ${a.speedHz}, ${a.speedSource},
-      ${a.velocityRmsMmPerS}, ${a.zone}, ${a.topHypothesis === null ? null : json(tx, a.topHypothesis)}, ${a.resultJson}::text::jsonb)
+      ${a.velocityRmsMmPerS}, ${a.zone}, ${a.alarmState}, ${a.alarmLevelMmPerS}, ${a.tripLevelMmPerS},
+      ${a.topHypothesis === null ? null : json(tx, a.topHypothesis)}, ${a.resultJson}::text::jsonb)
     returning id, created_at as "createdAt"`;
   return row!;
 }
@@ -426,6 +579,32 @@ function utcDay(at: Date): Date {
 /** 'YYYY-MM-DD' of the UTC day of `at`, bound as a date parameter (no session time zone involved). */
 function dayText(at: Date): string {
   return at.toISOString().slice(0, 10);
+}
+
+/** Month partitions of trend_values this process has made sure of, per database pool. */
+const trendMonths = new WeakMap<object, Set<string>>();
+
+/**
+ * Makes sure trend_values has the partition of the UTC month of `at` (migration 0008), before a transaction
+ * writes values of that month. Once per month and process; a month whose values already sit in the default
+ * partition (written before its partition existed) keeps them there, which the queries read alike.
+ */
+export async function ensureTrendMonth(sql: Queryable, at: Date): Promise<void> {
+  const start = new Date(Date.UTC(at.getUTCFullYear(), at.getUTCMonth(), 1));
+  const end = new Date(Date.UTC(at.getUTCFullYear(), at.getUTCMonth() + 1, 1));
+  const name = `trend_values_${start.toISOString().slice(0, 7).replace('-', '_')}`;
+  const known = trendMonths.get(sql) ?? new Set<string>();
+  trendMonths.set(sql, known);
+  if (known.has(name)) return;
+  try {
+    // identifiers cannot be bound: the name is made from two numbers above, the bounds are ISO times
+    await sql.unsafe(`create table if not exists ${name} partition of trend_values for values from ('${start.toISOString()}') to ('${end.toISOString()}')`);
+  } catch (err) {
+    // 23514: the default partition already holds values of this month; 42P07: a replica made it meanwhile
+    const code = (err as { code?: string }).code;
+    if (code !== '23514' && code !== '42P07') throw err;
+  }
+  known.add(name);
 }
 
 /**
@@ -538,13 +717,28 @@ export interface BucketRow {
   mean: number;
   max: number;
   last: number;
+  /** Zone and alarm state the analysis of the bucket's largest value graded (graded: true only). */
+  maxZone?: 'A' | 'B' | 'C' | 'D' | null;
+  maxAlarmState?: 'normal' | 'alarm' | 'trip' | null;
 }
 
 /** One indicator of one point, bucketed by UTC day, ISO week (from Monday) or calendar month, in [from, to). */
 export async function trendBuckets(
   sql: Queryable,
-  q: { pointId: number; indicator: string; bucket: Bucket; from: Date; to: Date },
+  q: { pointId: number; indicator: string; bucket: Bucket; from: Date; to: Date; graded?: boolean },
 ): Promise<BucketRow[]> {
+  if (q.graded) {
+    // the overall velocity: each bucket also carries the grading of the analysis behind its largest value
+    return sql<BucketRow[]>`
+      select date_trunc(${q.bucket}, v.recorded_at, 'UTC') as start, count(*)::int as count,
+        min(v.value) as min, avg(v.value) as mean, max(v.value) as max,
+        (array_agg(v.value order by v.recorded_at desc, v.recording_id desc))[1] as last,
+        (array_agg(a.zone order by v.value desc, v.recorded_at desc))[1] as "maxZone",
+        (array_agg(a.alarm_state order by v.value desc, v.recorded_at desc))[1] as "maxAlarmState"
+      from trend_values v left join analyses a on a.id = v.analysis_id
+      where v.point_id = ${q.pointId} and v.indicator = ${q.indicator} and v.recorded_at >= ${q.from} and v.recorded_at < ${q.to}
+      group by 1 order by 1`;
+  }
   return sql<BucketRow[]>`
     select date_trunc(${q.bucket}, recorded_at, 'UTC') as start, count(*)::int as count,
       min(value) as min, avg(value) as mean, max(value) as max,
@@ -552,6 +746,38 @@ export async function trendBuckets(
     from trend_values
     where point_id = ${q.pointId} and indicator = ${q.indicator} and recorded_at >= ${q.from} and recorded_at < ${q.to}
     group by 1 order by 1`;
+}
+
+/** How the newest analysis of a point graded the overall velocity, and the model version it graded against. */
+export interface GradedLevels {
+  /** The alarm and trip levels stored with the analysis; null when it stored none (analyses made before levels were graded). */
+  levels: { alarmLevel: number | null; tripLevel: number | null } | null;
+  modelVersion: number | null;
+}
+
+/**
+ * For each point, the grading of its newest analysed recording taken before `to` (a recording still queued has no
+ * analysis and is passed over); points with no analysed recording are absent. One index range scan per point
+ * (recordings_point_time), newest first, stopping at the first analysed recording.
+ */
+export async function latestGradedLevels(sql: Queryable, pointIds: readonly number[], to: Date): Promise<Map<number, GradedLevels>> {
+  const out = new Map<number, GradedLevels>();
+  if (pointIds.length === 0) return out;
+  const rows = await sql<{ pointId: number; alarmLevel: number | null; tripLevel: number | null; modelVersion: number | null }[]>`
+    select p.id as "pointId", g.alarm_level_mm_per_s as "alarmLevel", g.trip_level_mm_per_s as "tripLevel", g.model_version as "modelVersion"
+    from unnest(${sql.array([...pointIds])}::int[]) as p(id)
+    cross join lateral (
+      select a.alarm_level_mm_per_s, a.trip_level_mm_per_s, a.model_version
+      from recordings r join analyses a on a.recording_id = r.id and a.is_current
+      where r.point_id = p.id and r.recorded_at < ${to}
+      order by r.recorded_at desc limit 1) g`;
+  for (const r of rows) {
+    out.set(r.pointId, {
+      levels: r.alarmLevel === null && r.tripLevel === null ? null : { alarmLevel: r.alarmLevel, tripLevel: r.tripLevel },
+      modelVersion: r.modelVersion,
+    });
+  }
+  return out;
 }
 
 /** Every indicator recorded at a point (or at every point of a machine), with how many values it has. */
@@ -792,16 +1018,6 @@ export async function moveRecordingRow(tx: Queryable, recordingId: string, point
   await tx`update recordings set point_id = ${pointId}, recorded_at = ${recordedAt} where id = ${recordingId}`;
 }
 
-/** The channel (1-based) an upload asked the analysis to read, or null when the analysis chose. */
-export async function analysisChannelOf(sql: Queryable, recordingId: string): Promise<number | null> {
-  const [row] = await sql<{ channel: number | null }[]>`select analysis_channel as channel from recordings where id = ${recordingId}`;
-  return row?.channel ?? null;
-}
-
-export async function setAnalysisChannel(tx: Queryable, recordingId: string, channel: number | null): Promise<void> {
-  await tx`update recordings set analysis_channel = ${channel} where id = ${recordingId}`;
-}
-
 /**
  * Rebuilds one UTC day of a point's daily roll-up from its trend values, after a recording left that day
  * (deleted, or moved to another point or day).
@@ -819,16 +1035,27 @@ export async function rebuildTrendDay(tx: Queryable, pointId: number, at: Date):
     group by point_id, indicator`;
 }
 
-/** The newest recording of a point with its current trend values (null when the point has none). */
+/**
+ * The newest analysed recording of a point with its current trend values and the alarm and trip levels its analysis
+ * graded the overall velocity with (null when it graded none); null when the point has no analysed recording. A
+ * recording still queued is left out: its job applies the alarm rule when it stores the analysis.
+ */
 export async function newestRecordingValues(
   tx: Queryable,
   pointId: number,
-): Promise<{ recordingId: string; recordedAt: Date; indicators: Record<string, number> } | null> {
-  const [newest] = await tx<{ id: string; recordedAt: Date }[]>`
-    select id, recorded_at as "recordedAt" from recordings where point_id = ${pointId} order by recorded_at desc, id desc limit 1`;
+): Promise<{ recordingId: string; recordedAt: Date; indicators: Record<string, number>; velocityLevels: { alarmLevel: number | null; tripLevel: number | null } | null } | null> {
+  const [newest] = await tx<{ id: string; recordedAt: Date; alarmLevel: number | null; tripLevel: number | null }[]>`
+    select r.id, r.recorded_at as "recordedAt", a.alarm_level_mm_per_s as "alarmLevel", a.trip_level_mm_per_s as "tripLevel"
+    from recordings r join analyses a on a.recording_id = r.id and a.is_current
+    where r.point_id = ${pointId} order by r.recorded_at desc, r.id desc limit 1`;
   if (!newest) return null;
   const rows = await tx<{ indicator: string; value: number }[]>`select indicator, value from trend_values where recording_id = ${newest.id}`;
-  return { recordingId: newest.id, recordedAt: newest.recordedAt, indicators: Object.fromEntries(rows.map((r) => [r.indicator, r.value])) };
+  return {
+    recordingId: newest.id,
+    recordedAt: newest.recordedAt,
+    indicators: Object.fromEntries(rows.map((r) => [r.indicator, r.value])),
+    velocityLevels: newest.alarmLevel === null && newest.tripLevel === null ? null : { alarmLevel: newest.alarmLevel, tripLevel: newest.tripLevel },
+  };
 }
 
 /** Clears every open alarm of a point (its last recording is gone). */

@@ -290,7 +290,9 @@ export interface AnalysisSummary {
 export interface UploadResult {
   recordingId: string;
   duplicate: boolean;
-  analysis: AnalysisSummary;
+  /** 'queued' (answer 202) until a worker has stored the analysis: poll GET /api/v1/recordings/{id}/analysis */
+  analysisState?: 'queued' | 'done';
+  analysis: AnalysisSummary | null;
 }
 
 /** The predicted signature the explorer draws. Line fields beyond frequency and amplitude are optional. */

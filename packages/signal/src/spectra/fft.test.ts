@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { complexFft, complexSpectrumToReal, largestPowerOfTwoAtMost, realToComplexSpectrum } from './fft.js';
+import { complexFft, complexSpectrumToReal, largestPowerOfTwoAtMost, realToComplexSpectrum, cachedPlanSizes } from './fft.js';
 
 /** Direct O(N^2) DFT, X[k] = sum x[n] e^{-j 2 pi k n / N} (numpy.fft convention): the independent check. */
 function directDft(data: Float64Array): Float64Array {
@@ -74,5 +74,12 @@ describe('largestPowerOfTwoAtMost', () => {
     expect(largestPowerOfTwoAtMost(1)).toBe(1);
     expect(largestPowerOfTwoAtMost(8191)).toBe(4096);
     expect(largestPowerOfTwoAtMost(8192)).toBe(8192);
+  });
+});
+
+describe('complexFft plan cache', () => {
+  it('keeps plans of every size in use, long-record sizes included (was: only up to 65,536 points)', () => {
+    for (const size of [2 ** 18, 2 ** 20, 300_000]) expect(complexFft(size)).toBe(complexFft(size));
+    expect(cachedPlanSizes()).toEqual(expect.arrayContaining([2 ** 18, 2 ** 20, 300_000]));
   });
 });

@@ -135,18 +135,53 @@ class BluesteinFft implements ComplexFft {
   }
 }
 
-/** Plans for segment-sized transforms are kept; a whole-record transform is built fresh so its tables are freed. */
-const CACHE_LIMIT = 1 << 16;
-const plans = new Map<number, ComplexFft>();
+/**
+ * Plans are kept for every size in use, least recently used first out, within PLAN_CACHE_BYTES of tables:
+ * building a plan costs several transforms of its size (a 2^18-point plan about 8 transforms), so rebuilding
+ * one per call made long records slow. Bytes are estimated from the tables each kind holds.
+ */
+export const PLAN_CACHE_BYTES = 256 * 1024 * 1024;
+const plans = new Map<number, { plan: ComplexFft; bytes: number }>();
+let planBytes = 0;
 
-/** A complex DFT plan of the given size (any integer >= 1), reused across calls for sizes up to 65536. */
+function planBytesOf(size: number): number {
+  if (size === 1) return 0;
+  // fft.js: a complex table of 2·size doubles and a bit-reversal table of about size/2 int32s
+  const radix4 = (m: number) => 16 * m + 2 * m;
+  if (isPowerOfTwo(size)) return radix4(size);
+  let m = 1;
+  while (m < 2 * size - 1) m *= 2;
+  // inner plan, chirp spectrum and two work arrays of 2m doubles; chirp and conjugate buffer of 2n
+  return radix4(m) + 3 * 16 * m + 2 * 16 * size;
+}
+
+/** A complex DFT plan of the given size (any integer >= 1), reused across calls (see PLAN_CACHE_BYTES). */
 export function complexFft(size: number): ComplexFft {
   if (!Number.isInteger(size) || size < 1) throw new RangeError(`FFT size (${size}) must be a positive integer`);
   const cached = plans.get(size);
-  if (cached) return cached;
+  if (cached) {
+    // most recently used last
+    plans.delete(size);
+    plans.set(size, cached);
+    return cached.plan;
+  }
   const plan: ComplexFft = size === 1 ? new IdentityFft() : isPowerOfTwo(size) ? new Radix4Fft(size) : new BluesteinFft(size);
-  if (size <= CACHE_LIMIT) plans.set(size, plan);
+  const bytes = planBytesOf(size);
+  if (bytes <= PLAN_CACHE_BYTES) {
+    while (planBytes + bytes > PLAN_CACHE_BYTES && plans.size > 0) {
+      const [oldest, entry] = plans.entries().next().value!;
+      plans.delete(oldest);
+      planBytes -= entry.bytes;
+    }
+    plans.set(size, { plan, bytes });
+    planBytes += bytes;
+  }
   return plan;
+}
+
+/** Sizes of the plans kept now, least recently used first (for tests). */
+export function cachedPlanSizes(): number[] {
+  return [...plans.keys()];
 }
 
 class IdentityFft implements ComplexFft {

@@ -2,6 +2,7 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
 import type { Services } from '../app.js';
 import { pendingMigrations } from '../migrate.js';
+import { DATABASE_RETRY_AFTER_S } from '../database-errors.js';
 import { problem } from '../problems.js';
 import { ping } from '../store.js';
 
@@ -26,12 +27,15 @@ export const healthRoutes: FastifyPluginAsyncZod<{ services: Services; readiness
       response: { 200: z.object({ status: z.literal('ready') }) },
     },
   }, async () => {
+    const away = () => problem('service-unavailable', 'the database does not answer', { headers: { 'retry-after': String(DATABASE_RETRY_AFTER_S) } });
+    let pending: string[];
     try {
       await ping(services.sql);
+      pending = await pendingMigrations(services.sql);
     } catch {
-      throw problem('service-unavailable', 'the database does not answer');
+      // any failure of these two reads means "not ready", never a 500
+      throw away();
     }
-    const pending = await pendingMigrations(services.sql);
     if (pending.length > 0) throw problem('service-unavailable', `migrations not applied yet: ${pending.join(', ')}`);
     const waiting = readiness?.() ?? null;
     if (waiting) throw problem('service-unavailable', waiting);

@@ -1,16 +1,18 @@
 import { parseMachineModel } from '@kinespec/kinematics';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import { levelPointOfRow, levelsOf } from '../alarms.js';
 import type { Services } from '../app.js';
 import { FORECAST_HISTORY_MS, forecastTrend, levelsToForecast, soonest } from '../forecasts.js';
 import { MAIN_INDICATOR } from '../indicators.js';
+import { levelsAt, pointLevels, type PointLevels } from '../point-levels.js';
 import { parseModelText, storeMachineModel } from '../machine-models.js';
 import { problem } from '../problems.js';
-import { reanalyseMachine } from '../reanalysis.js';
-import { hypothesisRefSchema, idParam, iso, zoneSchema } from '../schemas.js';
+import { awaitReanalysis, startReanalysis } from '../reanalysis.js';
+import { hypothesisRefSchema, idParam, iso, isoTime, parseTime, preferredWaitMs, zoneSchema } from '../schemas.js';
 import {
   countOpenAlarmsByMachine,
+  getReanalysis,
+  type ReanalysisRow,
   findMachine,
   getModelVersion,
   latestPerPoint,
@@ -65,12 +67,12 @@ const machineSummarySchema = z.object({
 });
 
 /** The soonest crossing foreseen for the main indicator over a machine's points (the fleet's column), or null. */
-function soonestCrossing(points: readonly PointRow[], series: Map<number, Array<{ recordedAt: Date; value: number }>>) {
+function soonestCrossing(points: readonly PointRow[], series: Map<number, Array<{ recordedAt: Date; value: number }>>, levels: Map<number, PointLevels>) {
   let best: { point: PointRow; f: NonNullable<ReturnType<typeof soonest>> } | null = null;
   for (const point of points) {
     const values = series.get(point.id);
     if (!values) continue;
-    const f = soonest(forecastTrend(values, levelsToForecast(MAIN_INDICATOR, levelPointOfRow(point), null)));
+    const f = soonest(forecastTrend(values, levelsToForecast(MAIN_INDICATOR, levelsAt(point, levels.get(point.id), MAIN_INDICATOR), null)));
     if (f && (best === null || f.remainingS! < best.f.remainingS!)) best = { point, f };
   }
   if (!best) return null;
@@ -123,7 +125,9 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
       listSitePoints(sql, siteId),
       siteSeries(sql, { siteId, indicator: MAIN_INDICATOR, from: new Date(now.getTime() - FORECAST_HISTORY_MS), to: now }),
     ]);
-    const soonestOf = (machineId: number) => soonestCrossing(points.filter((p) => p.machineId === machineId), series);
+    // the levels each point's newest analysis graded with, for the points with a series to forecast
+    const levels = await pointLevels(services, points.filter((p) => series.has(p.id)), now);
+    const soonestOf = (machineId: number) => soonestCrossing(points.filter((p) => p.machineId === machineId), series, levels);
     return machines.map((m) => {
       const mine = latest.filter((l) => l.machineId === m.id);
       const zones = mine.map((l) => l.zone).filter((z): z is 'A' | 'B' | 'C' | 'D' => z !== null);
@@ -173,6 +177,8 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
       listModelVersions(sql, machine.id),
       machine.currentModelVersion === null ? null : getModelVersion(sql, machine.id, machine.currentModelVersion),
     ]);
+    // each point's alarm and trip levels as its newest analysis graded them (the registry's before any analysis)
+    const levels = await pointLevels(services, points, new Date(Date.now() + 1));
     return {
       id: machine.machineKey,
       name: machine.name,
@@ -180,7 +186,7 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
       model: model?.model ?? null,
       modelVersions: versions.map((v) => ({ version: v.version, validFrom: iso(v.validFrom), createdAt: iso(v.createdAt) })),
       points: points.map((p) => {
-        const levels = levelsOf(p, MAIN_INDICATOR);
+        const main = levelsAt(p, levels.get(p.id), MAIN_INDICATOR);
         return {
           id: p.pointKey,
           quantity: p.quantity,
@@ -188,8 +194,8 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
           near: optional(p.near),
           shaft: optional(p.shaft),
           direction: optional(p.direction),
-          alarmLevel: levels.alarmLevel,
-          tripLevel: levels.tripLevel,
+          alarmLevel: main.alarmLevel,
+          tripLevel: main.tripLevel,
         };
       }),
     };
@@ -204,7 +210,7 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
         'Optional `validFrom` (ISO time): recordings taken from then on are analysed against this version (default: now).',
       tags: ['machines'],
       params: z.object({ machineId: idParam }),
-      querystring: z.object({ validFrom: z.string().optional() }),
+      querystring: z.object({ validFrom: isoTime.optional() }),
       rawBody: { consumes: MODEL_TYPES, description: 'The machine model file, JSON or YAML' },
       response: { 200: z.object({ machineId: z.string(), version: z.number() }) },
     } as Record<string, unknown>,
@@ -213,12 +219,7 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
     if (typeof body !== 'string' || body.trim() === '') throw problem('bad-request', 'send the machine model file as the body (JSON or YAML)');
     const query = request.query as { validFrom?: string };
     let validFrom: Date | undefined;
-    if (query.validFrom !== undefined) {
-      validFrom = new Date(query.validFrom);
-      if (Number.isNaN(validFrom.getTime())) {
-        throw problem('validation-failed', 'query.validFrom: must be an ISO 8601 time', { errors: [{ path: 'query.validFrom', message: 'must be an ISO 8601 time' }] });
-      }
-    }
+    if (query.validFrom !== undefined) validFrom = parseTime(query.validFrom);
     const model = parseModelText(body, request.headers['content-type']);
     const params = request.params as { machineId: string };
     return storeMachineModel(sql, {
@@ -248,22 +249,57 @@ export const machineRoutes: FastifyPluginAsyncZod<{ services: Services }> = asyn
     return result.ok ? { ok: true, problems: [] } : { ok: false, problems: result.problems };
   });
 
+  const reanalysisSchema = z.object({
+    reanalysisId: z.string(),
+    machineId: z.string(),
+    modelVersion: z.number(),
+    total: z.number(),
+    analysed: z.number(),
+    failed: z.array(z.object({ recordingId: z.string(), reason: z.string() })),
+    createdAt: z.string(),
+    finishedAt: z.string().nullable(),
+  });
+  const reanalysisBody = (r: ReanalysisRow): z.infer<typeof reanalysisSchema> => ({
+    reanalysisId: r.id,
+    machineId: r.machineKey,
+    modelVersion: r.modelVersion,
+    total: r.total,
+    analysed: r.analysed,
+    failed: r.failed,
+    createdAt: iso(r.createdAt),
+    finishedAt: iso(r.finishedAt),
+  });
+
   app.post('/machines/:machineId/reanalyse', {
     config: { permission: 'manage' },
     schema: {
-      summary: "Analyse the machine's stored recordings again against its current model version; earlier analyses are kept",
+      summary: "Analyse the machine's stored recordings again against its current model version, as queued jobs; earlier analyses are kept",
+      description:
+        'One job per recording. Answers 200 with the outcome when every job is done within the upload wait (or Prefer: wait=N), ' +
+        'else 202 with Location /api/v1/reanalyses/{id}, which gives the progress.',
       tags: ['machines'],
       params: z.object({ machineId: idParam }),
-      response: {
-        200: z.object({
-          analysed: z.number(),
-          modelVersion: z.number(),
-          failed: z.array(z.object({ recordingId: z.string(), reason: z.string() })),
-        }),
-      },
+      response: { 200: reanalysisSchema, 202: reanalysisSchema },
+    },
+  }, async (request, reply) => {
+    const machine = await machineOf(request.apiKey!.siteId, request.params.machineId);
+    const id = await startReanalysis(services, machine, request.apiKey!.id);
+    const row = await awaitReanalysis(services, request.apiKey!.siteId, id, preferredWaitMs(request.headers['prefer'], services.config.uploadWaitMs ?? 5_000));
+    if (row.finishedAt === null) reply.code(202).header('location', `/api/v1/reanalyses/${id}`).header('retry-after', '1');
+    return reanalysisBody(row);
+  });
+
+  app.get('/reanalyses/:reanalysisId', {
+    config: { permission: 'read' },
+    schema: {
+      summary: "A re-analysis's progress: recordings analysed again and those that could not be, with the reason",
+      tags: ['machines'],
+      params: z.object({ reanalysisId: z.string().max(64) }),
+      response: { 200: reanalysisSchema },
     },
   }, async (request) => {
-    const machine = await machineOf(request.apiKey!.siteId, request.params.machineId);
-    return reanalyseMachine(services, machine);
+    const row = await getReanalysis(sql, request.apiKey!.siteId, request.params.reanalysisId);
+    if (!row) throw problem('not-found', `no re-analysis '${request.params.reanalysisId}' on this site`);
+    return reanalysisBody(row);
   });
 };

@@ -5,7 +5,7 @@ import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
 import type { Services } from '../app.js';
 import { ingestRecording } from '../ingest.js';
-import { problem, type FieldError } from '../problems.js';
+import { problem, ProblemError, type FieldError } from '../problems.js';
 import {
   analysisSchema,
   hypothesisRefSchema,
@@ -13,12 +13,14 @@ import {
   iso,
   isoTime,
   parseTime,
+  preferredWaitMs,
   uploadResultSchema,
   zoneSchema,
 } from '../schemas.js';
 import {
   findMachine,
   findPoint,
+  getAnalysisState,
   getCurrentAnalysis,
   getRecording,
   listAnalyses,
@@ -38,6 +40,44 @@ export const RECORDING_TYPES = [
   'application/json',
   'application/octet-stream',
 ];
+
+/** A form carries one file (the recording) and at most this many fields (the query parameters, as text). */
+const MAX_FORM_FILES = 1;
+const MAX_FORM_FIELDS = 20;
+
+/** Framework codes that already name a limit the client broke (413 problems of their own). */
+const FORM_LIMIT_CODES = new Set(['FST_REQ_FILE_TOO_LARGE', 'FST_PARTS_LIMIT', 'FST_FILES_LIMIT', 'FST_FIELDS_LIMIT']);
+
+/**
+ * Reads a multipart/form-data upload to its end: exactly one file part named `file`, at most
+ * MAX_FORM_FIELDS text fields (in `fields`). A second file, a field too many or a body the multipart parser
+ * cannot follow (no boundary, a boundary the body never uses, no closing boundary) is the client's: 400.
+ */
+async function readUploadForm(request: FastifyRequest, fields: Record<string, string>): Promise<{ bytes: Buffer; contentType: string | undefined; filename: string | undefined }> {
+  let file: { bytes: Buffer; contentType: string | undefined; filename: string | undefined } | null = null;
+  let fieldCount = 0;
+  try {
+    for await (const part of request.parts()) {
+      if (part.type === 'file') {
+        if (part.fieldname !== 'file') throw problem('bad-request', `send the recording in the form field 'file' (got '${part.fieldname}')`);
+        if (file) throw problem('bad-request', 'the form holds more than one file; send one recording per request');
+        file = { bytes: await part.toBuffer(), contentType: part.mimetype, filename: part.filename };
+      } else {
+        if (++fieldCount > MAX_FORM_FIELDS) throw problem('bad-request', `the form holds more than ${MAX_FORM_FIELDS} fields`);
+        if (typeof part.value === 'string') fields[part.fieldname] = part.value;
+      }
+    }
+  } catch (err) {
+    if (err instanceof ProblemError) throw err;
+    const code = (err as { code?: string }).code;
+    if (code === 'FST_FILES_LIMIT') throw problem('bad-request', 'the form holds more than one file; send one recording per request');
+    if (code === 'FST_FIELDS_LIMIT') throw problem('bad-request', `the form holds more than ${MAX_FORM_FIELDS} fields`);
+    if (code && FORM_LIMIT_CODES.has(code)) throw err;
+    throw problem('bad-request', `the multipart form cannot be read: ${(err as Error).message ?? String(err)}`);
+  }
+  if (!file) throw problem('bad-request', "the form has no file: send the recording in the field 'file'");
+  return file;
+}
 
 const uploadQuery = z.object({
   sampleRateHz: z.coerce.number().positive().finite().optional().describe('Sample rate of raw samples (or to override a CSV/JSON file)'),
@@ -104,6 +144,8 @@ const recordingMetaSchema = z.object({
   sourceFormat: z.string(),
   speedRpm: z.number().nullable(),
   metadata: z.record(z.string(), z.string()),
+  /** When KINESPEC_SAMPLE_RETENTION_DAYS dropped the raw samples; null while they are kept. */
+  samplesPurgedAt: z.string().nullable(),
   warnings: z.array(z.string()).describe("The decoder's warnings about the file (metadata.warning, one entry each)"),
 });
 
@@ -114,7 +156,11 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
   // recording bodies are read as bytes (up to the configured limit) and handed to the decoder as they are
   app.removeContentTypeParser(['application/json', 'text/plain']);
   app.addContentTypeParser(RECORDING_TYPES, { parseAs: 'buffer', bodyLimit: limit }, (_request, body, done) => done(null, body));
-  await app.register(fastifyMultipart, { limits: { fileSize: limit, files: 1, fields: 20, fieldSize: 1024, parts: 30 } });
+  // busboy's own limits are one above ours: readUploadForm counts and names the excess itself (400), where
+  // busboy would stop reading silently or only at the end of the file
+  await app.register(fastifyMultipart, {
+    limits: { fileSize: limit, files: MAX_FORM_FILES + 1, fields: MAX_FORM_FIELDS + 1, fieldSize: 1024, parts: MAX_FORM_FIELDS + MAX_FORM_FILES + 2 },
+  });
 
   async function pointOf(siteId: string, machineKey: string, pointKey: string) {
     const machine = await findMachine(sql, siteId, machineKey);
@@ -126,6 +172,10 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
 
   app.post('/machines/:machineId/points/:pointId/recordings', {
     config: { permission: 'upload' },
+    onResponse: async (_request, reply) => {
+      if (reply.statusCode >= 500) services.metrics.uploads.inc({ outcome: 'failed' });
+      else if (reply.statusCode >= 400) services.metrics.uploads.inc({ outcome: 'refused' });
+    },
     bodyLimit: limit,
     schema: {
       summary: 'Upload a recording of a machine point; it is stored, analysed and trended in one go',
@@ -147,7 +197,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
         'x-speed-rpm': z.string().optional(),
       }),
       rawBody: { consumes: [...RECORDING_TYPES, 'multipart/form-data'], description: 'The recording file' },
-      response: { 200: uploadResultSchema, 201: uploadResultSchema },
+      response: { 200: uploadResultSchema, 201: uploadResultSchema, 202: uploadResultSchema },
     } as Record<string, unknown>,
   }, async (request, reply) => {
     const key = request.apiKey!;
@@ -160,16 +210,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
     let filename: string | undefined;
     const fields: Record<string, string> = {};
     if (request.isMultipart()) {
-      const part = await request.file();
-      if (!part) throw problem('bad-request', "the form has no file: send the recording in the field 'file'");
-      if (part.fieldname !== 'file') throw problem('bad-request', `send the recording in the form field 'file' (got '${part.fieldname}')`);
-      bytes = await part.toBuffer();
-      contentType = part.mimetype;
-      filename = part.filename;
-      for (const [name, field] of Object.entries(part.fields)) {
-        const f = Array.isArray(field) ? field[0] : field;
-        if (f && f.type === 'field' && typeof f.value === 'string') fields[name] = f.value;
-      }
+      ({ bytes, contentType, filename } = await readUploadForm(request, fields));
     } else {
       if (!Buffer.isBuffer(request.body)) {
         throw problem('unsupported-media-type', `send the recording as one of ${RECORDING_TYPES.join(', ')} or multipart/form-data`);
@@ -198,15 +239,8 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
     } catch (err) {
       if (!(err instanceof SignalInputError)) throw err;
     }
-    let recordedAt: Date | null = null;
-    if (q.recordedAt !== undefined) {
-      recordedAt = parseTime(q.recordedAt);
-      if (recordedAt.getTime() > Date.now() + 86_400_000) {
-        throw problem('validation-failed', 'query.recordedAt: lies more than a day in the future', {
-          errors: [{ path: 'query.recordedAt', message: 'lies more than a day in the future' }],
-        });
-      }
-    }
+    // checked with the file's own time, whichever source wins (recorded-at.ts)
+    const recordedAt = q.recordedAt !== undefined ? parseTime(q.recordedAt) : null;
     const result = await ingestRecording(services, {
       key,
       machine,
@@ -218,12 +252,18 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       recordedAt,
       speedRpm: q.speedRpm ?? null,
       channel: q.channel ?? null,
-    });
+    }, preferredWaitMs(request.headers['prefer'], services.config.uploadWaitMs ?? 5_000));
+    services.metrics.uploads.inc({ outcome: result.body.duplicate ? 'duplicate' : 'stored' });
     if (result.status === 201) reply.header('location', `/api/v1/recordings/${result.body.recordingId}`);
+    if (result.status === 202) {
+      // stored for good; its analysis is queued: poll the analysis
+      reply.header('location', `/api/v1/recordings/${result.body.recordingId}/analysis`);
+      reply.header('retry-after', '1');
+    }
     if (result.timings) {
       const t = result.timings;
-      // W3C Server Timing: where an upload's time went
-      reply.header('server-timing', `decode;dur=${t.decodeMs.toFixed(1)}, analysis;dur=${t.analysisMs.toFixed(1)}, store;dur=${t.storeMs.toFixed(1)}`);
+      // W3C Server Timing: where an upload's time went (analysis: the wait for the queued analysis)
+      reply.header('server-timing', `decode;dur=${t.decodeMs.toFixed(1)}, store;dur=${t.storeMs.toFixed(1)}, analysis;dur=${t.analysisMs.toFixed(1)}`);
     }
     return reply.code(result.status).send(result.body);
   });
@@ -295,6 +335,7 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
       sourceFormat: r.sourceFormat,
       speedRpm: r.speedRpm,
       metadata: r.metadata,
+      samplesPurgedAt: iso(r.samplesPurgedAt),
       warnings: recordingWarnings(r.metadata),
     };
   });
@@ -303,12 +344,20 @@ export const recordingRoutes: FastifyPluginAsyncZod<{ services: Services }> = as
     config: { permission: 'read' },
     schema: {
       summary: 'The current analysis of a recording: overall levels, plot spectrum, hypotheses with evidence',
+      description: '202 with Retry-After while the analysis is still queued; the problem the recording failed with when it cannot be analysed.',
       tags: ['recordings'],
       params: z.object({ recordingId: z.string().max(64) }),
-      response: { 200: analysisSchema },
+      response: { 200: analysisSchema, 202: z.object({ recordingId: z.string(), analysisState: z.literal('queued') }) },
     },
-  }, async (request) => {
+  }, async (request, reply) => {
     const r = await recordingOf(request.apiKey!.siteId, request.params.recordingId);
+    const state = await getAnalysisState(sql, r.id);
+    if (state?.state === 'queued') {
+      return reply.code(202).header('retry-after', '1').send({ recordingId: r.id, analysisState: 'queued' } as never);
+    }
+    if (state?.state === 'failed' && state.problem) {
+      throw new ProblemError(state.problem.slug, state.problem.detail, { recordingId: r.id, ...(state.problem.code ? { code: state.problem.code } : {}) });
+    }
     const a = await getCurrentAnalysis(sql, r.id);
     if (!a) throw problem('not-found', `recording '${r.id}' has no analysis`);
     return { ...a.result, id: a.id, recordingId: a.recordingId, modelVersion: a.modelVersion, createdAt: iso(a.createdAt), current: true } as z.infer<typeof analysisSchema>;

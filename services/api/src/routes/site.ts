@@ -26,6 +26,6 @@ export const siteRoutes: FastifyPluginAsyncZod<{ services: Services }> = async (
     const key = request.apiKey!;
     const site = await getSite(services.sql, key.siteId);
     if (!site) throw problem('not-found', 'the site of this key no longer exists');
-    return { ...site, role: key.role, demo: services.demoStatus() };
+    return { ...site, role: key.role as 'logger' | 'engineer' | 'admin', demo: services.demoStatus() };
   });
 };

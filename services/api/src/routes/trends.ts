@@ -1,22 +1,17 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
-import { indicatorLevels } from '@kinespec/diagnosis';
-import { alarmState, levelPointOfRow, levelsOf } from '../alarms.js';
-import { severityLevels } from '../analysis.js';
+import { alarmState } from '../alarms.js';
 import type { Services } from '../app.js';
 import { FORECAST_HISTORY_MS, forecastTrend, levelsToForecast } from '../forecasts.js';
 import { indicatorUnit, INDICATOR_PATTERN, MAIN_INDICATOR } from '../indicators.js';
+import { levelsAt, pointLevels } from '../point-levels.js';
 import { problem } from '../problems.js';
 import { idParam, iso, isoTime, parseTime, zoneSchema } from '../schemas.js';
-import { findMachine, findPoint, fleetRanking, listIndicators, listPoints, trendBuckets, trendSeries, type PointRow } from '../store.js';
+import { findMachine, findPoint, fleetRanking, listIndicators, listPoints, trendBuckets, trendSeries } from '../store.js';
 
 const indicatorParam = z.string().regex(INDICATOR_PATTERN, 'must be an indicator name such as velocity_rms_mm_per_s or score:bearing-outer-race:input-de');
 
 const YEAR_MS = 366 * 86_400_000;
-
-function pointIso(p: PointRow) {
-  return p.isoGroup && p.isoFoundation ? { group: p.isoGroup, foundation: p.isoFoundation } : null;
-}
 
 export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async (app, { services }) => {
   const { sql } = services;
@@ -99,19 +94,16 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
     if (!(from < to)) {
       throw problem('validation-failed', 'query.from: must lie before query.to', { errors: [{ path: 'query.from', message: 'must lie before query.to' }] });
     }
-    const [rows, series] = await Promise.all([
-      trendBuckets(sql, { pointId: point.id, indicator: q.indicator, bucket: q.bucket, from, to }),
-      trendSeries(sql, { pointId: point.id, indicator: q.indicator, from: new Date(to.getTime() - FORECAST_HISTORY_MS), to }),
-    ]);
-    const levels = levelsOf(point, q.indicator);
-    const levelPoint = levelPointOfRow(point);
     const velocity = q.indicator === MAIN_INDICATOR;
-    const pointLevels = {
-      iso: pointIso(point),
-      alarmVelocityRmsMmPerS: point.alarmVelocityRmsMmPerS,
-      tripVelocityRmsMmPerS: point.tripVelocityRmsMmPerS,
-      baselineVelocityRmsMmPerS: point.baselineVelocityRmsMmPerS,
-    };
+    // the overall velocity is graded once, by the analysis: each bucket reads the zone and alarm state stored
+    // with the analysis of its largest value; the levels and zone boundaries are those of the newest analysis
+    // (point-levels.ts), and the forecast is made against the same
+    const [rows, series, levelsOfPoint] = await Promise.all([
+      trendBuckets(sql, { pointId: point.id, indicator: q.indicator, bucket: q.bucket, from, to, graded: velocity }),
+      trendSeries(sql, { pointId: point.id, indicator: q.indicator, from: new Date(to.getTime() - FORECAST_HISTORY_MS), to }),
+      pointLevels(services, [point], to),
+    ]);
+    const levels = levelsAt(point, levelsOfPoint.get(point.id), q.indicator);
     return {
       machineId: machine.machineKey,
       pointId: point.pointKey,
@@ -120,7 +112,7 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
       bucket: q.bucket,
       from: iso(from),
       to: iso(to),
-      zoneBoundaries: indicatorLevels(q.indicator, levelPoint).zoneBoundaries,
+      zoneBoundaries: levels.zoneBoundaries,
       alarmLevel: levels.alarmLevel,
       tripLevel: levels.tripLevel,
       buckets: rows.map((b) => ({
@@ -130,10 +122,10 @@ export const trendRoutes: FastifyPluginAsyncZod<{ services: Services }> = async 
         mean: b.mean,
         max: b.max,
         last: b.last,
-        zone: velocity ? severityLevels(b.max, pointLevels).zone : null,
-        alarmState: alarmState(b.max, levels),
+        zone: velocity ? b.maxZone ?? null : null,
+        alarmState: velocity ? b.maxAlarmState ?? null : alarmState(b.max, levels),
       })),
-      forecast: forecastTrend(series, levelsToForecast(q.indicator, levelPoint, q.threshold ?? null)),
+      forecast: forecastTrend(series, levelsToForecast(q.indicator, levels, q.threshold ?? null)),
     };
   });
 

@@ -14,4 +14,5 @@ export const verbLoaders: Record<string, () => Promise<Verb>> = {
   serve: async () => (await import('./serve.js')).serveVerb,
   upload: async () => (await import('./upload.js')).uploadVerb,
   trend: async () => (await import('./trend.js')).trendVerb,
+  worker: async () => (await import('./worker.js')).workerVerb,
 };

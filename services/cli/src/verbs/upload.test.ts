@@ -110,10 +110,12 @@ describe('kinespec upload against a flaky server', () => {
           seen.push({ key, status: 0 });
           return;
         }
-        const status = calls === 2 ? 503 : calls === 3 ? 429 : 201;
+        const status = calls === 2 ? 503 : calls === 3 ? 429 : 202;
         seen.push({ key, status });
-        res.writeHead(status, { 'content-type': 'application/json', ...(status === 429 ? { 'retry-after': '0' } : {}) });
-        res.end(JSON.stringify(status === 201 ? { recordingId: 'r-1', duplicate: false, analysis: null } : { title: 'busy', detail: 'try later' }));
+        // the service's load shedding and database outages answer 503 with Retry-After, as rate limits do with 429
+        res.writeHead(status, { 'content-type': 'application/json', ...(status === 429 ? { 'retry-after': '0' } : status === 503 ? { 'retry-after': '1' } : {}) });
+        // at last stored, its analysis queued behind others (202)
+        res.end(JSON.stringify(status === 202 ? { recordingId: 'r-1', duplicate: false, analysisState: 'queued', analysis: null } : { title: 'busy', detail: 'try later' }));
       });
     });
     await new Promise<void>((r) => server.listen(0, '127.0.0.1', () => r()));
@@ -122,13 +124,16 @@ describe('kinespec upload against a flaky server', () => {
   });
   afterAll(() => new Promise<void>((r) => server.close(() => r())));
 
-  it('retries a dropped connection, a 503 and a 429 with the same Idempotency-Key, then succeeds', async () => {
+  it('retries a dropped connection, a 503 and a 429 with the same Idempotency-Key, then takes a 202 as stored', async () => {
     const io = capture();
     const code = await main(['upload', fileA, '--server', base, '--key', 'k', '--machine', 'm', '--point', 'p', '--backoff-ms', '5'], io);
     expect(code).toBe(0);
-    expect(seen.map((s) => s.status)).toEqual([0, 503, 429, 201]);
+    expect(seen.map((s) => s.status)).toEqual([0, 503, 429, 202]);
     expect(new Set(seen.map((s) => s.key)).size).toBe(1);
     expect(io.stderr.filter((l) => l.includes('retrying'))).toHaveLength(3);
+    // the 503's Retry-After: 1 was honoured (the backoff alone would have waited about 10 ms)
+    expect(io.stderr.find((l) => l.includes('HTTP 503') || l.includes('busy'))).toMatch(/retrying in 1\.0 s/);
     expect(io.stdout[0]).toContain('recording r-1');
+    expect(io.stdout[0]).toContain('analysis queued: GET /api/v1/recordings/r-1/analysis');
   });
 });

@@ -200,6 +200,7 @@ function describeOutcome(o: UploadOutcome): string {
   const b = o.body as {
     recordingId?: string;
     duplicate?: boolean;
+    analysisState?: string;
     analysis?: { velocityRmsMmPerS?: number | null; zone?: string | null; topHypotheses?: Array<{ fault: string; component: string; score: number }>; warnings?: string[] };
   };
   const a = b.analysis;
@@ -207,6 +208,8 @@ function describeOutcome(o: UploadOutcome): string {
   if (a?.velocityRmsMmPerS != null) parts.push(`${a.velocityRmsMmPerS.toFixed(2)} mm/s r.m.s.${a.zone ? `, zone ${a.zone}` : ''}`);
   const top = a?.topHypotheses?.[0];
   if (top) parts.push(`top hypothesis ${top.fault} on ${top.component} (${top.score.toFixed(2)})`);
+  // 202: stored for good, analysed later by a worker of the queue
+  if (b.analysisState === 'queued') parts.push(`analysis queued: GET /api/v1/recordings/${b.recordingId}/analysis`);
   // what the server assumed or set aside (unit read as the point's, nominal speed, mistyped keys): one note each
   return [parts.join('; '), ...(a?.warnings ?? []).map((w) => `  note: ${w}`)].join('\n');
 }

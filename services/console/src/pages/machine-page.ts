@@ -6,6 +6,7 @@ import { faultName, formatDateTime, formatFixed, formatNumber } from '../format.
 import { landingPoint, type PointLatest } from '../landing-point.js';
 import { routeHref, type Route } from '../route.js';
 import type { Quantity } from '../spectrum-quantity.js';
+import { isQueued } from '../upload-summary.js';
 import { zoneBadge } from '../zone-badge.js';
 import { renderAlarmPanel } from './alarm-panel.js';
 import { renderAnalysisView, type AnalysisViewState } from './analysis-view.js';
@@ -194,10 +195,15 @@ export async function renderMachinePage(main: HTMLElement, ctx: AppContext, rout
     }
     if (token !== loadToken) return;
     clear(analysisHost);
-    analysisCleanup = renderAnalysisView(analysisHost, analysis, state.view, (s) => {
-      state.view = s;
-      remember();
-    }, meta);
+    if (isQueued(analysis)) {
+      // stored, its analysis still waiting in the queue (202): say so rather than draw nothing
+      analysisHost.append(message('note', 'This recording is stored; its analysis is still queued (behind the demo’s or other uploads). Choose the point again in a moment.'));
+    } else {
+      analysisCleanup = renderAnalysisView(analysisHost, analysis, state.view, (s) => {
+        state.view = s;
+        remember();
+      }, meta);
+    }
     if (meta) {
       renderCorrectionForm(correctionHost, ctx, meta, (entry) => {
         correctionDone.hidden = false;

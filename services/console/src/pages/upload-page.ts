@@ -1,9 +1,10 @@
 import { ApiProblem } from '../api-client.js';
-import type { UploadResult } from '../api-types.js';
+import type { AnalysisSummary, RecordingAnalysis, RecordingMeta, UploadResult } from '../api-types.js';
 import type { AppContext, Cleanup } from '../app-context.js';
 import { clear, h, message } from '../dom.js';
 import { faultName, formatFixed } from '../format.js';
 import { routeHref, type Route } from '../route.js';
+import { isQueued, summaryOfAnalysis } from '../upload-summary.js';
 import { utcFromInput } from '../utc-time.js';
 import { scoreBadge, zoneBadge } from '../zone-badge.js';
 
@@ -24,8 +25,8 @@ function formatBytes(n: number): string {
 }
 
 /** The summary's hypotheses: those at 0.5 or more as faults, the weaker ones folded away. */
-function hypothesisList(a: UploadResult['analysis']): HTMLElement {
-  const item = (x: UploadResult['analysis']['topHypotheses'][number]) =>
+function hypothesisList(a: AnalysisSummary): HTMLElement {
+  const item = (x: AnalysisSummary['topHypotheses'][number]) =>
     h('li', {}, scoreBadge(x.score), ` ${faultName(x.fault)} @ ${x.component}`, h('span', { class: 'muted' }, ` — ${x.reason}`));
   const faults = a.topHypotheses.filter((x) => x.score >= 0.5);
   const weaker = a.topHypotheses.filter((x) => x.score < 0.5);
@@ -134,29 +135,51 @@ export async function renderUploadPage(main: HTMLElement, ctx: AppContext, route
       },
     );
     aborts.add(handle.abort);
+    const showSummary = (r: UploadResult, a: AnalysisSummary) => {
+      item.dataset.state = 'done';
+      status.textContent = r.duplicate ? 'already stored: first result shown' : 'analysed';
+      const channels = a.channels ?? [];
+      const analysed = a.analysedChannel ? channels[a.analysedChannel - 1] : undefined;
+      result.append(
+        h(
+          'div',
+          { class: 'upload-summary', 'data-analysis-id': a.analysisId },
+          zoneBadge(a.zone),
+          h('span', { class: 'num' }, ` ${formatFixed(a.velocityRmsMmPerS, 2)} mm/s RMS`),
+          h('span', { class: 'upload-speed', 'data-speed-source': a.speedSource ?? '' }, ` · speed ${a.speedHz ? `${formatFixed(a.speedHz * 60, 1)} rpm (${speedSourceText(a.speedSource, speedGiven)})` : 'unknown'}`),
+          channels.length > 1 && analysed ? h('span', { class: 'upload-channel' }, ` · channel ${a.analysedChannel} '${analysed.name}' of ${channels.length} analysed (${channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ')}; choose another above and upload again)`) : null,
+          ' · ',
+          h('a', { href: routeHref('machine', machineId, { point: pointId, recording: r.recordingId }) }, 'open the analysis'),
+        ),
+        hypothesisList(a),
+      );
+      if (a.warnings?.length) result.insertBefore(h('ul', { class: 'warnings upload-warnings', 'aria-label': `What was assumed for ${file.name}` }, ...a.warnings.map((w) => h('li', {}, `⚠ ${w}`))), result.lastChild);
+    };
+    // 202: the recording is stored and its analysis queued behind others (the demo's, another upload's): ask
+    // for it every second or two until it is stored or refused (a problem, shown as any other), for ten minutes
+    // at most; the card says so meanwhile
+    const awaitAnalysis = async (r: UploadResult): Promise<AnalysisSummary | null> => {
+      item.dataset.state = 'queued';
+      status.textContent = 'stored; analysis queued…';
+      const path = `/api/v1/recordings/${encodeURIComponent(r.recordingId)}`;
+      const deadline = Date.now() + 600_000;
+      for (let attempt = 0; Date.now() < deadline; attempt++) {
+        const body = await ctx.api.get<RecordingAnalysis | { analysisState: 'queued' }>(`${path}/analysis`);
+        if (!isQueued(body)) return summaryOfAnalysis(body as RecordingAnalysis, await ctx.api.get<RecordingMeta>(path));
+        await new Promise((resolve) => setTimeout(resolve, Math.min(2_000, 500 + 250 * attempt)));
+      }
+      return null;
+    };
     handle.result
-      .then((r) => {
+      .then(async (r) => {
         progress.value = 100;
-        item.dataset.state = 'done';
         item.dataset.recordingId = r.recordingId;
-        status.textContent = r.duplicate ? 'already stored: first result shown' : 'analysed';
-        const a = r.analysis;
-        const channels = a.channels ?? [];
-        const analysed = a.analysedChannel ? channels[a.analysedChannel - 1] : undefined;
-        result.append(
-          h(
-            'div',
-            { class: 'upload-summary', 'data-analysis-id': a.analysisId },
-            zoneBadge(a.zone),
-            h('span', { class: 'num' }, ` ${formatFixed(a.velocityRmsMmPerS, 2)} mm/s RMS`),
-            h('span', { class: 'upload-speed', 'data-speed-source': a.speedSource ?? '' }, ` · speed ${a.speedHz ? `${formatFixed(a.speedHz * 60, 1)} rpm (${speedSourceText(a.speedSource, speedGiven)})` : 'unknown'}`),
-            channels.length > 1 && analysed ? h('span', { class: 'upload-channel' }, ` · channel ${a.analysedChannel} '${analysed.name}' of ${channels.length} analysed (${channels.map((c, i) => `${i + 1} '${c.name}'`).join(', ')}; choose another above and upload again)`) : null,
-            ' · ',
-            h('a', { href: routeHref('machine', machineId, { point: pointId, recording: r.recordingId }) }, 'open the analysis'),
-          ),
-          hypothesisList(a),
-        );
-        if (a.warnings?.length) result.insertBefore(h('ul', { class: 'warnings upload-warnings', 'aria-label': `What was assumed for ${file.name}` }, ...a.warnings.map((w) => h('li', {}, `⚠ ${w}`))), result.lastChild);
+        const a = r.analysis ?? (await awaitAnalysis(r));
+        if (a) showSummary(r, a);
+        else {
+          status.textContent = 'stored; analysis still queued';
+          result.append(message('note', 'The recording is stored; its analysis is still waiting for a worker and will appear on the machine page.'));
+        }
       })
       .catch((err: unknown) => {
         item.dataset.state = 'failed';
