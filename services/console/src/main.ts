@@ -70,7 +70,12 @@ async function renderRoute(ctx: AppContext, main: HTMLElement, nav: HTMLElement)
   main.setAttribute('aria-busy', 'true');
   try {
     const render = { fleet: renderFleetPage, machine: renderMachinePage, signatures: renderSignaturePage, upload: renderUploadPage }[route.page];
-    const done = await render(main, ctx, route);
+    // Each render draws into its own view: a render still waiting for data when the route changes again (a click
+    // during the demo's reload, a hash change right after the first load) draws into a view no longer shown, instead
+    // of appending a second copy of its page to the one on screen.
+    const view = h('div', { class: 'view', 'data-view-page': route.page });
+    main.append(view);
+    const done = await render(view, ctx, route);
     if (token !== renderToken) done();
     else cleanup = done;
   } catch (err) {
