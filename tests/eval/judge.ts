@@ -1,7 +1,7 @@
 // Judges one analysis against its label: which hypotheses at 0.5 or more name a labelled fault, whether the top one
 // does, and the rates the metrics add up. The equivalences (what counts as naming the same fault) live here only.
 import type { Hypothesis, RecordingAnalysis } from '@kinespec/diagnosis';
-import type { Bearing, MachineModel } from '@kinespec/kinematics';
+import { shaftRatios, type Bearing, type MachineModel } from '@kinespec/kinematics';
 import type { CaseLabel, LabelledCase, LabelledFault } from './corpus.js';
 import { severityClassOf, SHOWN_SCORE, type SeverityClass } from './goals.js';
 
@@ -9,7 +9,7 @@ import { severityClassOf, SHOWN_SCORE, type SeverityClass } from './goals.js';
 export type Verdict =
   /** The labelled kind on the labelled component (an unbalance of a rotor is one of its shaft: the same lines and remedy). */
   | 'true'
-  /** Counted as true, flagged: a missing for a broken tooth (or back) on the labelled gear, or the same kind of defect in a bearing identical to the labelled one on the same shaft. */
+  /** Counted as true, flagged: a missing for a broken tooth (or back) on the labelled gear, the same kind of defect in a bearing identical to the labelled one on the same shaft, or in a gear whose lines are the labelled gear's (a 1:1 pair). */
   | 'equivalent'
   | 'false';
 
@@ -82,6 +82,21 @@ function identicalBearings(model: MachineModel, a: string, b: string): boolean {
   return key(x) === key(y);
 }
 
+/**
+ * Two gears that no spectrum can tell apart: the same mesh frequency and the same sideband spacing (teeth × shaft
+ * speed and shaft speed equal), as the two gears of a 1:1 pair of timing gears.
+ */
+function identicalGears(model: MachineModel, a: string, b: string): boolean {
+  const gears = model.gearMeshes.flatMap((m) => [m.driver, m.driven]);
+  const x = gears.find((g) => g.gear === a);
+  const y = gears.find((g) => g.gear === b);
+  if (!x || !y) return false;
+  const ratio = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
+  const rx = ratio.get(x.shaft) ?? Number.NaN;
+  const ry = ratio.get(y.shaft) ?? Number.NaN;
+  return Math.abs(rx - ry) <= 1e-9 * rx && x.teeth === y.teeth;
+}
+
 /** How hypothesis `h` relates to one labelled fault. */
 function relation(model: MachineModel, h: Pick<Hypothesis, 'fault' | 'component'>, f: LabelledFault): { verdict: Verdict; flag?: string } {
   const sameKind = h.fault === f.fault;
@@ -92,6 +107,9 @@ function relation(model: MachineModel, h: Pick<Hypothesis, 'fault' | 'component'
   if (samePart) return sameKind ? { verdict: 'true' } : { verdict: 'equivalent', flag: 'tooth fault' };
   if (sameKind && h.fault.startsWith('bearing-') && identicalBearings(model, h.component, f.component)) {
     return { verdict: 'equivalent', flag: 'identical bearing' };
+  }
+  if (h.fault.startsWith('gear-') && identicalGears(model, h.component, f.component)) {
+    return { verdict: 'equivalent', flag: sameKind ? 'identical gear' : 'tooth fault, identical gear' };
   }
   return { verdict: 'false' };
 }

@@ -351,6 +351,7 @@ function hypothesesStage(
   const limits: CandidateLimits = {
     spectrumTopHz: spectrum.frequenciesHz[spectrum.frequenciesHz.length - 2]!,
     spectrumLowHz: 2 * spectrum.frequencyResolutionHz,
+    spectrumResolutionHz: spectrum.frequencyResolutionHz,
     envelopeTopHz: envelope ? Infinity : 0,
     envelopeLowHz: 0,
     maxLines: MAX_LINES,

@@ -32,6 +32,8 @@ export interface Candidate {
 }
 
 export interface CandidateLimits {
+  /** Bin spacing of the spectrum the spectrum-domain lines are read in, Hz. */
+  spectrumResolutionHz: number;
   /** Highest and lowest frequency each spectrum can show a line at. */
   spectrumTopHz: number;
   spectrumLowHz: number;
@@ -46,6 +48,21 @@ export interface CandidateLimits {
  * (Randall & Antoni, MSSP 25:485–520, 2011, §2.1), so bearing lines get this much spread of their own.
  */
 export const BEARING_SLIP_FRACTION = 0.015;
+
+/**
+ * Faults judged by the presence of running lines (unbalance, misalignment, looseness, wear) have no chance of the
+ * pattern to weigh them (a 1× is in every spectrum), so where each line lies is their test: a running line is where
+ * the measured speed puts it. The interpolated frequency of a tone in a Hann-windowed spectrum lies within a few
+ * hundredths of a bin of it without noise and within about a tenth at 10 dB over the floor (Jain, Collins & Davis,
+ * IEEE Trans. IM 28:113–122, 1979; the spread from memory), so half a bin, beyond the speed's uncertainty, is some
+ * three standard deviations: a peak further off is another tone (noise near DC, a neighbouring machine). This holds
+ * for a tone whose neighbours lie outside its main lobe: the shaft's harmonics must be ISOLATED_LINE_BINS apart (the
+ * Hann main lobe spans ±2 bins; Harris 1978), else their lobes merge, bias the interpolation and keep the full bin
+ * (a pattern of one line, unbalance's 1×, has no neighbours of its own).
+ * Lines at fixed frequencies (twice line frequency) keep the full bin too: the grid frequency wanders.
+ */
+export const RUNNING_LINE_TOLERANCE_BINS = 0.5;
+export const ISOLATED_LINE_BINS = 4;
 
 /**
  * One candidate per physical part and fault (@kinespec/signatures faultCandidates, each predicted with
@@ -65,6 +82,7 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
   const ratio = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
   const pointShaft = point.shaft ?? model.bearings.find((b) => b.id === point.near)?.shaft ?? model.speed.shaft;
   const bearingGroups = twinBearings(model, point, ratio, pointShaft);
+  const gearGroups = twinGears(model, ratio, pointShaft);
   const sameSpeedShafts = groupsOf(model.shafts.map((sh) => sh.id), (sh) => (ratio.get(sh) ?? 1).toPrecision(9), (members) => (members.includes(pointShaft) ? pointShaft : members[0]!));
   const out: Candidate[] = [];
   for (const p of predictions(model, point, speedHz)) {
@@ -86,6 +104,11 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
       const rotorTwins = c.fault === 'unbalance' ? others.flatMap((m) => [...rotorsOn(m), m]) : others;
       twins = [...(c.componentKind === 'rotor' ? [c.shaft] : c.fault === 'unbalance' ? rotors : []), ...rotorTwins];
     }
+    if (c.componentKind === 'gear') {
+      const group = gearGroups.get(c.component);
+      if (group && group.representative !== c.component) continue;
+      twins = group ? group.members.filter((m) => m !== c.component) : [];
+    }
     if (c.componentKind === 'bearing') {
       const group = bearingGroups.get(c.component);
       if (!group || group.representative !== c.component) continue;
@@ -99,6 +122,7 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
     // Lines at fixed frequencies (twice line frequency) do not move with a speed error, nor with the speed step.
     const fixed = signature.fixedFrequency;
     const stretch = fixed ? 1 : p.speedRatio;
+    const isolated = (ratio.get(c.shaft) ?? 1) * speedHz >= ISOLATED_LINE_BINS * limits.spectrumResolutionHz;
     // The lines the spectrum can show, strongest first (the cached lines are sorted so already).
     const lines: ExpectedLine[] = [];
     for (const l of signature.lines) {
@@ -108,6 +132,8 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
         lines.push({ frequencyHz, amplitude: l.amplitude * scale, label: l.label, order: fixed ? 0 : frequencyHz / speedHz, relativeSpreadFraction: spread });
       }
     }
+    // A lone line (unbalance's 1×) has no neighbours of its own to merge with.
+    if (descriptor.evidence === 'presence' && !fixed && (isolated || lines.length === 1)) for (const l of lines) l.toleranceBins = RUNNING_LINE_TOLERANCE_BINS;
     let context: string;
     const own = new Set<string>([c.component, ...twins]);
     switch (c.componentKind) {
@@ -121,7 +147,7 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
         break;
       case 'gear':
         context = `gear:${c.component}`;
-        for (const m of meshOfGear.get(c.component) ?? []) own.add(m);
+        for (const g of [c.component, ...twins]) for (const m of meshOfGear.get(g) ?? []) own.add(m);
         break;
       case 'gear-mesh':
         context = `mesh:${c.component}`;
@@ -159,6 +185,26 @@ function twinBearings(model: MachineModel, point: Point, ratio: ReadonlyMap<stri
       return [o.bpfo, o.bpfi, o.bsf, o.ftf].map((x) => (x * r).toPrecision(9)).join('|');
     },
     (members) => (members.includes(point.near ?? '') ? point.near! : members.find((m) => shaftOf.get(m) === pointShaft) ?? members[0]!),
+  );
+}
+
+/**
+ * Groups of gears whose tooth-fault lines fall at the same frequencies: the same mesh frequency (teeth × shaft speed)
+ * and the same sideband spacing (shaft speed), as the two gears of a 1:1 pair of timing gears. A tooth fault of one
+ * cannot be told from the other's by frequency: one candidate per group, named after the gear on the point's shaft
+ * (the nearer gear), else the first in the model, the others its twins.
+ */
+function twinGears(model: MachineModel, ratio: ReadonlyMap<string, number>, pointShaft: string): Map<string, { representative: string; members: string[] }> {
+  const gears = new Map<string, { shaft: string; teeth: number }>();
+  for (const m of model.gearMeshes) for (const g of [m.driver, m.driven]) gears.set(g.gear, { shaft: g.shaft, teeth: g.teeth });
+  return groupsOf(
+    [...gears.keys()],
+    (id) => {
+      const g = gears.get(id)!;
+      const r = ratio.get(g.shaft) ?? 1;
+      return `${r.toPrecision(9)}|${(r * g.teeth).toPrecision(9)}`;
+    },
+    (members) => members.find((m) => gears.get(m)!.shaft === pointShaft) ?? members[0]!,
   );
 }
 

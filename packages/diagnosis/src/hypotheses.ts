@@ -6,7 +6,7 @@ import { claimShared, searchCombs, type BandSource, type BearingComb, type CombE
 import { evidenceOf } from './evidence/chance.js';
 import { weighPattern } from './evidence/line-evidence.js';
 import { GATE_CLOSED_FACTOR, gates, type GateContext } from './faults/gates.js';
-import { levelOf, type LevelContext } from './level.js';
+import { judgedLevel, type LevelContext } from './level.js';
 import { firstAtOrAbove, type MatchableSpectrum } from './line-matching.js';
 
 /** One predicted line of a judged hypothesis, as the evidence table and the reasons read it. */
@@ -154,13 +154,14 @@ export function judgeHypotheses(inputs: JudgeInputs): Judged[] {
 
 function finish(candidate: Candidate, lines: JudgedLine[], chance: number, rivalry: { exclusivity: number; shape: number }, inputs: JudgeInputs): Judged {
   const detection = candidate.descriptor.evidence === 'chance' ? evidenceOf(chance) : presenceOf(lines);
-  const level = clamp01(levelOf(candidate, lines, {
+  const judgedAt = judgedLevel(candidate, lines, {
     model: inputs.model, unit: candidate.domain === 'envelope' ? `${inputs.unit}^2` : inputs.unit, isoAbMmPerS: inputs.isoAbMmPerS, isoBcMmPerS: inputs.isoBcMmPerS, baseline: inputs.baseline,
     speedHz: inputs.lineSpeedHz, measured: inputs.main, uncertaintyHz: inputs.speedUncertaintyHz, unitHz: inputs.unitHz,
     referenceSpeedHz: inputs.referenceSpeedHz, baselineOrders: inputs.baselineOrders, pointUnit: inputs.pointUnit,
-  }));
+  });
+  const level = clamp01(judgedAt.level);
   const context: GateContext = {
-    candidate, lines, quantity: inputs.quantity, speed: inputs.speed, hasBaseline: inputs.baseline !== null || (inputs.baselineOrders?.length ?? 0) > 0,
+    candidate, lines, quantity: inputs.quantity, speed: inputs.speed, hasBaseline: judgedAt.againstBaseline,
     oncePerTurn: () => oncePerTurnComb(candidate, inputs),
   };
   let gate = 1;
@@ -413,6 +414,7 @@ export function pathShape(lines: readonly JudgedLine[]): number {
 }
 
 const PATH_SHAPE_MIN_LINES = 6;
+
 const PATH_SHAPE_DB = 10;
 
 /** R.m.s. residual of the least-squares fit y ≈ a + b·x + c·x² (normal equations, centred x). */

@@ -39,6 +39,17 @@ export interface LevelContext {
  * rise of the matched lines: +12 dB (×4) counts fully (ISO 10816-3 criterion II in spirit: change matters).
  */
 export function levelOf(candidate: Candidate, lines: readonly LevelLine[], context: LevelContext): number {
+  return judgedLevel(candidate, lines, context).level;
+}
+
+/**
+ * The level and whether a baseline of the point judged it: the baseline analysis held this hypothesis, or the
+ * point's healthy orders held most of its matched power. A baseline that holds other orders (the mesh fundamental
+ * but not its harmonics) does not judge it, and the descriptor's rule without a baseline applies.
+ */
+export function judgedLevel(candidate: Candidate, lines: readonly LevelLine[], context: LevelContext): { level: number; againstBaseline: boolean } {
+  const plain = (level: number) => ({ level, againstBaseline: false });
+  const judged = (level: number) => ({ level, againstBaseline: true });
   const matched = lines.filter((m) => m.matched && m.measuredAmplitude !== null);
   const orders = context.baselineOrders;
   // The model's own healthy amplitudes at chosen orders: only for faults judged by the size of lines every machine
@@ -56,26 +67,26 @@ export function levelOf(candidate: Candidate, lines: readonly LevelLine[], conte
       now += m.measuredAmplitude! ** 2;
       then += (b.amplitude * scale) ** 2;
     }
-    if (then > 0 && now >= 0.5 * all) return riseLevel(now, then);
+    if (then > 0 && now >= 0.5 * all) return judged(riseLevel(now, then));
   }
   if (context.baseline) {
     const before = context.baseline.hypotheses.find((h) => h.fault === candidate.fault && h.component === candidate.component);
     if (before) {
       const now = energy(matched.map((m) => m.measuredAmplitude!));
       const then = energy(before.evidence.filter((e) => e.matched && e.measured !== null).map((e) => e.measured!));
-      if (then > 0) return riseLevel(now, then);
-      return now > 0 ? 1 : 0;
+      if (then > 0) return judged(riseLevel(now, then));
+      return judged(now > 0 ? 1 : 0);
     }
   }
   switch (candidate.descriptor.level) {
     case 'mesh-harmonics':
-      return wearLevel(lines);
+      return plain(wearLevel(lines));
     case 'tooth-drop':
-      return toothDropLevel(candidate, TOOTH_DROP_DEPTH[candidate.fault as keyof typeof TOOTH_DROP_DEPTH] ?? 1, context);
+      return plain(toothDropLevel(candidate, TOOTH_DROP_DEPTH[candidate.fault as keyof typeof TOOTH_DROP_DEPTH] ?? 1, context));
     case 'iso-velocity':
-      return isoVelocityLevel(matched, context);
+      return plain(isoVelocityLevel(matched, context));
     case 'presence':
-      return 1;
+      return plain(1);
   }
 }
 

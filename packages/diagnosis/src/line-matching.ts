@@ -10,6 +10,8 @@ export interface ExpectedLine {
   order: number;
   /** Extra relative spread of the line's frequency, e.g. 0.01–0.02 for rolling-element slip. */
   relativeSpreadFraction?: number;
+  /** Bins the line may lie from its prediction beyond the speed's uncertainty and its spread; default 1 (see lineToleranceHz). */
+  toleranceBins?: number;
 }
 
 export interface LineMatch {
@@ -71,8 +73,8 @@ export interface ToleranceOptions {
  * of it, and noise moves it by a fraction more), plus three standard uncertainties of the speed times the
  * line's order (a speed error δ moves the n-th order by n·δ), plus any physical spread of the line itself.
  */
-export function lineToleranceHz(line: Pick<ExpectedLine, 'frequencyHz' | 'order' | 'relativeSpreadFraction'>, options: ToleranceOptions): number {
-  return options.frequencyResolutionHz + 3 * Math.abs(line.order) * options.speedUncertaintyHz + (line.relativeSpreadFraction ?? 0) * line.frequencyHz;
+export function lineToleranceHz(line: Pick<ExpectedLine, 'frequencyHz' | 'order' | 'relativeSpreadFraction' | 'toleranceBins'>, options: ToleranceOptions): number {
+  return (line.toleranceBins ?? 1) * options.frequencyResolutionHz + 3 * Math.abs(line.order) * options.speedUncertaintyHz + (line.relativeSpreadFraction ?? 0) * line.frequencyHz;
 }
 
 /**

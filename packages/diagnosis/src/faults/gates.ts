@@ -19,7 +19,7 @@ export interface GateContext {
   /** Quantity of the spectrum the lines were read in (amplitude ratios become velocity ratios). */
   quantity: 'acceleration' | 'velocity' | 'displacement';
   /** Where the running speed came from, and the running lines that placed it when the spectrum did. */
-  /** A baseline of the point exists (an earlier analysis, or the model's healthy orders). */
+  /** A baseline of the point judged this hypothesis's level (an earlier analysis holding it, or healthy orders holding most of its matched power; level.ts judgedLevel). */
   hasBaseline: boolean;
   /** Harmonics of the gear's shaft rate found in its mesh's envelope (null when the record cannot tell). */
   oncePerTurn: () => number | null;
