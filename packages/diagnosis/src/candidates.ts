@@ -133,7 +133,12 @@ export function buildCandidates(model: MachineModel, point: Point, speedHz: numb
       }
     }
     // A lone line (unbalance's 1×) has no neighbours of its own to merge with.
-    if (descriptor.evidence === 'presence' && !fixed && (isolated || lines.length === 1)) for (const l of lines) l.toleranceBins = RUNNING_LINE_TOLERANCE_BINS;
+    if (descriptor.evidence === 'presence' && !fixed && (isolated || lines.length === 1)) {
+      for (const l of lines) {
+        l.toleranceBins = RUNNING_LINE_TOLERANCE_BINS;
+        l.snrTolerance = true;
+      }
+    }
     let context: string;
     const own = new Set<string>([c.component, ...twins]);
     switch (c.componentKind) {

@@ -1,7 +1,7 @@
 import { noiseFloor, welchSpectrum } from '@kinespec/signal';
 import { describe, expect, it } from 'vitest';
 import { add, gaussianNoise, sine } from '../test/signals.js';
-import { lineToleranceHz, matchableSpectrum, matchLine } from './line-matching.js';
+import { lineToleranceHz, matchableSpectrum, matchLine, toneFrequencySigmaBins } from './line-matching.js';
 
 const fs = 8192;
 const n = 8192 * 8;
@@ -55,5 +55,49 @@ describe('lineToleranceHz', () => {
     expect(lineToleranceHz({ frequencyHz: 100, order: 1 }, { frequencyResolutionHz: 0.5, speedUncertaintyHz: 0 })).toBe(0.5);
     expect(lineToleranceHz({ frequencyHz: 100, order: 4 }, { frequencyResolutionHz: 0.5, speedUncertaintyHz: 0.01 })).toBeCloseTo(0.62, 12);
     expect(lineToleranceHz({ frequencyHz: 100, order: 4, relativeSpreadFraction: 0.01 }, { frequencyResolutionHz: 0.5, speedUncertaintyHz: 0 })).toBeCloseTo(1.5, 12);
+  });
+});
+
+describe('toneFrequencySigmaBins: how well a tone’s frequency is read at its SNR', () => {
+  // Rife & Boorstyn (IEEE Trans. IT 20:591–598, 1974): the Cramér–Rao bound of a sinusoid's frequency in white noise,
+  // 0.225/√SNR_bin bins for a Hann peak bin (derivation beside the function). The function allows three times the bound;
+  // the scatter of interpolated frequencies of simulated tones (2.4–2.6 times the bound here) must lie between the two.
+  it('lies between the Cramér–Rao bound and three times it for tones at 10 and 20 dB over the floor', () => {
+    const fsHz = 1024;
+    const length = 1024;
+    for (const targetDb of [10, 20]) {
+      // One Hann segment: SNR_bin = ρ·N/3 with ρ = A²/(2σ²) per sample.
+      const noiseSigma = 1;
+      const a = Math.sqrt((2 * noiseSigma ** 2 * 3 * 10 ** (targetDb / 10)) / length);
+      const errors: number[] = [];
+      for (let trial = 0; trial < 300; trial++) {
+        const toneBin = 100.13 + (trial % 7) * 0.11;
+        const x = add(sine(length, fsHz, toneBin, a, trial * 0.7), gaussianNoise(length, 1000 + trial, noiseSigma));
+        const spectrum = welchSpectrum(x, fsHz, { segmentLength: length, scaling: 'peak', window: 'hann' });
+        const m = matchableSpectrum(spectrum, noiseFloor(spectrum));
+        const match = matchLine(m, { frequencyHz: toneBin, amplitude: 1, label: 'tone', order: 0 }, 2, 0);
+        if (match.matched) errors.push(match.measuredHz! - toneBin);
+      }
+      const mean = errors.reduce((s, e) => s + e, 0) / errors.length;
+      const sd = Math.sqrt(errors.reduce((s, e) => s + (e - mean) ** 2, 0) / (errors.length - 1));
+      const bound = toneFrequencySigmaBins(targetDb) / 3;
+      // A robust spread (1.4826 × median absolute deviation): a few noise peaks picked instead of the tone would
+      // dominate a standard deviation at 10 dB.
+      const deviations = errors.map((e) => Math.abs(e - mean)).sort((p, q) => p - q);
+      const spread = 1.4826 * deviations[Math.floor(deviations.length / 2)]!;
+      expect(errors.length).toBeGreaterThan(280);
+      expect(spread).toBeGreaterThan(0.9 * bound);
+      expect(spread).toBeLessThan(toneFrequencySigmaBins(targetDb));
+    }
+  });
+
+  it('rejects a strong tone 0.4 bin off a line placed exactly by the speed, and keeps one 0.05 bin off', () => {
+    const m = measured(); // the tone at 437.37 Hz stands some 40 dB over the floor (1 Hz bins)
+    const line = (frequencyHz: number) => ({ frequencyHz, amplitude: 1, label: '1×', order: 1, toleranceBins: 0.5, snrTolerance: true });
+    const tol = (l: ReturnType<typeof line>) => lineToleranceHz(l, { frequencyResolutionHz: 1, speedUncertaintyHz: 0 });
+    const off = line(toneHz - 0.4);
+    expect(matchLine(m, off, tol(off)).matched).toBe(false);
+    const on = line(toneHz - 0.05);
+    expect(matchLine(m, on, tol(on)).matched).toBe(true);
   });
 });

@@ -12,6 +12,23 @@ export interface ExpectedLine {
   relativeSpreadFraction?: number;
   /** Bins the line may lie from its prediction beyond the speed's uncertainty and its spread; default 1 (see lineToleranceHz). */
   toleranceBins?: number;
+  /**
+   * The tone found must also lie within three standard deviations of an interpolated frequency at its own SNR
+   * (toneFrequencySigmaBins), not only within `toleranceBins`: for lines placed exactly by the speed (running lines).
+   */
+  snrTolerance?: boolean;
+}
+
+/**
+ * Standard deviation, in bins, of a tone's frequency read from a Hann-windowed spectrum at `snrDb` over the floor.
+ * The Cramér–Rao bound for one sinusoid in white noise is var(ω) = 12/(ρ·N³) (Rife & Boorstyn, IEEE Trans. IT 20:591–598,
+ * 1974), ρ the per-sample SNR; a Hann peak bin holds ρ·N/3 over its noise (coherent gain 0.5, Σw²/N = 0.375), so in bins
+ * σ = √(2/SNR_bin)/(2π) = 0.225/√SNR_bin. Three times that allows for the window's and the 3-point interpolation's loss
+ * against the bound and for a floor read as a median: simulated tones at 10 and 20 dB scatter 1–3 times the bound
+ * (line-matching.test.ts).
+ */
+export function toneFrequencySigmaBins(snrDb: number): number {
+  return (3 * Math.sqrt(2)) / (2 * Math.PI) / Math.sqrt(10 ** (snrDb / 10));
 }
 
 export interface LineMatch {
@@ -99,7 +116,14 @@ export function matchLine(measured: MatchableSpectrum, line: ExpectedLine, toler
   const peak = best >= 0 && snrDb[best]! >= minSnrDb ? peakAt(measured, best) : null;
   // The peak bin may lie within the tolerance while the tone it holds (interpolated) lies beyond it.
   // (Plain object literals of one shape: spreading a common part costs more than the matching itself.)
-  if (peak && Math.abs(peak.frequencyHz - line.frequencyHz) <= toleranceHz + 0.1 * df) {
+  let allowedHz = toleranceHz + 0.1 * df;
+  if (peak && line.snrTolerance) {
+    // The window part of the tolerance shrinks to three standard deviations of the tone's own frequency (at least a tenth of a bin).
+    const windowBins = line.toleranceBins ?? 1;
+    const ownBins = Math.min(windowBins, Math.max(0.1, 3 * toneFrequencySigmaBins(snrDb[best]!)));
+    allowedHz = toleranceHz - windowBins * df + ownBins * df + 0.1 * df;
+  }
+  if (peak && Math.abs(peak.frequencyHz - line.frequencyHz) <= allowedHz) {
     return {
       label: line.label,
       predictedHz: line.frequencyHz,
