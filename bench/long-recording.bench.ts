@@ -2,7 +2,9 @@
 // every stage is bounded, the envelope goes block by block), and (2) one upload of a 10,000,000-sample
 // recording to a running `kinespec serve` (built: run `npm run build` first) on a scratch database of the
 // PostgreSQL server (BENCH_DATABASE_URL, default the local one; LONG_EMBEDDED=1 for the embedded database):
-// its answer time and the server's peak resident memory (VmHWM). Goals: under 10 s and under 600 MB.
+// its answer time and the server's peak resident memory (VmHWM). Goals: under 10 s and under 600 MB. Then (3) the
+// latency of ordinary uploads (65,536 samples, another point, two clients) alone and beside a second large upload:
+// goal p99 under 1 s beside it (PROBE_TIMING=1 prints each one's Server-Timing).
 // Prints figures; asserts nothing. Run under the shared lock: flock /tmp/kinespec-heavy.lock npm run bench long
 //
 //   LONG_SIZES (default 16,18,20,22,24: log2 sample counts), LONG_UPLOAD_SAMPLES (default 10000000)
@@ -106,15 +108,36 @@ async function upload(): Promise<void> {
     if (!put.ok) throw new Error(`PUT model: ${put.status}`);
     const hwm = () => Number(/VmHWM:\s+(\d+) kB/.exec(readFileSync(`/proc/${child.pid}/status`, 'utf8'))?.[1] ?? NaN) / 1024;
     const idle = hwm();
-    const t0 = performance.now();
-    const res = await fetch(`${server}/api/v1/machines/${MACHINE}/points/${POINT}/recordings?sampleRateHz=${FS}&unit=g`, {
-      method: 'POST', headers: { ...headers, 'content-type': 'application/octet-stream', prefer: 'wait=120' }, body,
-    });
-    const text = await res.text();
-    const seconds = (performance.now() - t0) / 1000;
+    // Each large upload differs in its last sample: the same bytes again would be answered as a duplicate.
+    let largeSerial = 0;
+    const largeBody = () => {
+      const b = Buffer.from(body);
+      b.writeFloatLE(b.readFloatLE(b.length - 4) + ++largeSerial * 1e-6, b.length - 4);
+      return b;
+    };
+    const large = async () => {
+      const t0 = performance.now();
+      const res = await fetch(`${server}/api/v1/machines/${MACHINE}/points/${POINT}/recordings?sampleRateHz=${FS}&unit=g`, {
+        method: 'POST', headers: { ...headers, 'content-type': 'application/octet-stream', prefer: 'wait=120' }, body: largeBody(),
+      });
+      return { res, text: await res.text(), seconds: (performance.now() - t0) / 1000 };
+    };
+    const { res, text, seconds } = await large();
     console.log(`\nupload of ${n.toLocaleString('en')} samples (${(body.length / 2 ** 20).toFixed(0)} MiB raw float32) to kinespec serve, ${database}`);
     console.log(`answer ${res.status} in ${seconds.toFixed(1)} s (goal < 10 s); server peak RSS ${hwm().toFixed(0)} MB (goal < 600 MB; ${idle.toFixed(0)} MB before the upload)`);
     console.log(`Server-Timing: ${res.headers.get('server-timing') ?? '-'}`);
+    // Other requests of a plant: a logger's ordinary upload (65,536 samples) to another point, one after another
+    // from two clients; their latency alone (after a warm-up) is the reference, then beside a second large upload.
+    const probe = probeUploads(server, headers);
+    await probe.run(() => false, PROBE_WARM_UP);
+    const alone = await probe.run(() => false, PROBE_ALONE);
+    let done = false;
+    const beside = probe.run(() => done, Infinity);
+    await large();
+    done = true;
+    const during = await beside;
+    console.log(`other uploads (65,536 samples, another point, 2 clients): alone p50 ${pct(alone, 0.5)} ms p99 ${pct(alone, 0.99)} ms (${alone.length}); `
+      + `beside a large upload p50 ${pct(during, 0.5)} ms p99 ${pct(during, 0.99)} ms (${during.length}; goal p99 < 1000 ms), p99 ratio ${(Number(pct(during, 0.99)) / Number(pct(alone, 0.99))).toFixed(2)}`);
     if (res.status >= 300) console.log(text.slice(0, 300));
   } finally {
     child.kill('SIGTERM');
@@ -122,6 +145,48 @@ async function upload(): Promise<void> {
     rmSync(dataDir, { recursive: true, force: true });
     await dropDatabase();
   }
+}
+
+/** Uploads other requests make while the large one runs: the probe point and its ordinary recording. */
+const PROBE_POINT = 'motor-de-h';
+const PROBE_ALONE = 40;
+const PROBE_WARM_UP = 6;
+
+function probeUploads(server: string, headers: Record<string, string>) {
+  const samples = simulateRecording(model, { pointId: PROBE_POINT, sampleRateHz: FS, sampleCount: 2 ** 16, faults: [] }).channels[0]!.samples;
+  const f32 = new Float32Array(samples.length);
+  for (let i = 0; i < samples.length; i++) f32[i] = samples[i]!;
+  const unit = model.points.find((p) => p.id === PROBE_POINT)?.unit ?? 'g';
+  let serial = 0;
+  const one = async (): Promise<number> => {
+    const bytes = new Uint8Array(f32.buffer.slice(0));
+    // a different last sample each time, so no upload is a duplicate of another
+    new DataView(bytes.buffer).setFloat32(bytes.length - 4, f32[f32.length - 1]! + ++serial * 1e-6, true);
+    const t = performance.now();
+    const r = await fetch(`${server}/api/v1/machines/${MACHINE}/points/${PROBE_POINT}/recordings?sampleRateHz=${FS}&unit=${encodeURIComponent(unit)}`, {
+      method: 'POST', headers: { ...headers, 'content-type': 'application/octet-stream' }, body: bytes,
+    });
+    await r.arrayBuffer();
+    if (r.status >= 300) throw new Error(`probe upload answered ${r.status}`);
+    const ms = performance.now() - t;
+    if (process.env.PROBE_TIMING) console.log(`probe ${ms.toFixed(0)} ms at ${(t / 1000).toFixed(2)} s: ${r.headers.get('server-timing')}`);
+    return ms;
+  };
+  return {
+    async run(stop: () => boolean, count: number): Promise<number[]> {
+      const times: number[] = [];
+      const client = async () => {
+        while (!stop() && times.length < count) times.push(await one());
+      };
+      await Promise.all([client(), client()]);
+      return times.sort((a, b) => a - b);
+    },
+  };
+}
+
+function pct(sorted: readonly number[], q: number): string {
+  if (sorted.length === 0) return '-';
+  return sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))]!.toFixed(0);
 }
 
 perSample();
