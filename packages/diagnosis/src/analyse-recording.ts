@@ -56,6 +56,11 @@ export interface AnalyseOptions {
   domain?: 'auto' | 'frequency' | 'angle';
   /** When given, each stage of the analysis adds its wall time here (ms, keyed by stage), for benchmarks; never changes the result. */
   stageTimesMs?: Record<string, number>;
+  /**
+   * false: stop before the fault hypotheses (no candidates, scores, unexplained peaks): every other indicator is the
+   * same, which is all a trend of the envelope level or the speed needs (computeIndicators). Default true.
+   */
+  hypotheses?: boolean;
 }
 
 /** Lines closer than this SNR to the floor are not peaks worth listing or matching. */
@@ -163,7 +168,9 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   // Stage: hypotheses.
   let judged: Judged[] = [];
   let catalogue: CatalogueLine[] = [];
-  if (model && speedHz !== null && point && speed) {
+  if (options.hypotheses === false) {
+    // no hypotheses asked for: the indicators below do not read them
+  } else if (model && speedHz !== null && point && speed) {
     catalogue = catalogueLines(model, speedHz);
     judged = hypothesesStage(model, point, speed, speedHz, unit, quantity, measured, angle, envelope, severity.boundaries ?? DEFAULT_BOUNDARIES, options, warnings, lap);
   } else if (model && !point) {
@@ -181,7 +188,7 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
     if (j.candidate.domain !== 'spectrum' && j.score < 0.5) continue;
     for (const l of j.lines) if (l.matched && l.measuredHz !== null) matchedHz.push(l.measuredHz * unitHz);
   }
-  const unexplainedPeaks = unexplained(spectrum, measured, catalogue.filter((l) => !(l as { bearing?: boolean }).bearing), matchedHz, speedHz, speed?.uncertaintyHz ?? 0);
+  const unexplainedPeaks = options.hypotheses === false ? [] : unexplained(spectrum, measured, catalogue.filter((l) => !(l as { bearing?: boolean }).bearing), matchedHz, speedHz, speed?.uncertaintyHz ?? 0);
   lap('unexplained peaks');
 
   // The envelope shown: the band of the strongest shown bearing hypothesis (its proof), else the default band.

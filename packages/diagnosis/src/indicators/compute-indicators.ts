@@ -29,8 +29,8 @@ const SLOW_MACHINE_RPM = 600;
 /**
  * Computes the named indicators of one recording, doing only the work they need: the time indicators need the
  * acceleration signal alone, the overall velocity one Welch spectrum; the envelope level (its band depends on the
- * bearings' defect frequencies at the measured speed), the speed, the fault scores and the gear averages need the
- * whole analysis, and analyseRecording makes it. The values equal those of analyseRecording for the same options
+ * bearings' defect frequencies at the measured speed) the analysis up to its envelope stage, the speed, the fault
+ * scores and the gear averages the whole analysis; analyseRecording makes both. The values equal those of analyseRecording for the same options
  * (a test holds them together): channel, point and unit are chosen by the same rules.
  */
 export function computeIndicators(recording: Recording, names: readonly string[], options: IndicatorOptions = {}): ComputedIndicators {
@@ -43,8 +43,9 @@ export function computeIndicators(recording: Recording, names: readonly string[]
   if (stage === 'spectrum' && model && bandFollowsMeasuredSpeed(model, options.speedRpm)) stage = 'analysis';
 
   if (stage === 'envelope' || stage === 'analysis') {
-    const a = analyseRecording(recording, { ...options, maxPlotPoints: 16 });
-    return pick(names, a.indicators, a.indicatorUnits ?? {}, 'analysis', a.warnings);
+    // The envelope level needs the speed and the envelope stage, not the fault hypotheses.
+    const a = analyseRecording(recording, { ...options, maxPlotPoints: 16, ...(stage === 'envelope' ? { hypotheses: false } : {}) });
+    return pick(names, a.indicators, a.indicatorUnits ?? {}, stage, a.warnings);
   }
 
   const warnings: string[] = [];

@@ -123,6 +123,19 @@ describe('computeIndicators', () => {
     expect(c.units.acceleration_peak).toBe('g');
   });
 
+  it('computes the envelope level without the fault hypotheses, equal to the whole analysis (the default band reads no hypothesis)', () => {
+    const names = ['envelope_rms', 'kurtogram_kurtosis', 'acceleration_rms'];
+    const c = computeIndicators(recording('gb-input-h', 'g', gPoint), names, { model: mixer, pointId: 'gb-input-h' });
+    expect(c.stage).toBe('envelope');
+    const a = analyseRecording(recording('gb-input-h', 'g', gPoint), { model: mixer, pointId: 'gb-input-h' });
+    expect(a.hypotheses.length).toBeGreaterThan(0);
+    for (const name of names) if (a.indicators[name] !== undefined) expect(c.values[name]).toBe(a.indicators[name]);
+    expect(c.values.envelope_rms).toBeGreaterThan(0);
+    const cut = analyseRecording(recording('gb-input-h', 'g', gPoint), { model: mixer, pointId: 'gb-input-h', hypotheses: false });
+    expect(cut.hypotheses).toEqual([]);
+    expect(cut.indicators.envelope_rms).toBe(a.indicators.envelope_rms);
+  });
+
   it('computes the overall velocity from one spectrum, equal to analyseRecording', () => {
     const c = computeIndicators(recording('gb-input-h', 'g', gPoint), ['velocity_rms_mm_per_s'], { model: mixer, pointId: 'gb-input-h' });
     expect(c.stage).toBe('spectrum');
