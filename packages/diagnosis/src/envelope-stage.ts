@@ -15,6 +15,43 @@ export interface EnvelopeStage {
   topHz: number;
 }
 
+/** Mesh harmonics, and blade-pass harmonics, that stand strong in a gearbox or fan spectrum (common practice: 1-3x mesh, 1-2x blade pass). */
+const STRONG_MESH_HARMONICS = 3;
+const STRONG_BLADE_HARMONICS = 2;
+
+/**
+ * The strong discrete tones of the machine's running (mesh and blade-pass harmonics), each with its family, in the
+ * record's frequency unit (the reference speed is 1 in the angle domain). Empty without a model or a speed.
+ */
+function strongRunningTones(model: MachineModel | null, referenceHz: number | null): Array<{ hz: number; family: string }> {
+  if (!model || referenceHz === null) return [];
+  const ratio = new Map(shaftRatios(model).map((r) => [r.shaft, r.ratio]));
+  const out: Array<{ hz: number; family: string }> = [];
+  for (const m of model.gearMeshes) {
+    const gmf = m.driver.teeth * (ratio.get(m.driver.shaft) ?? Number.NaN) * referenceHz;
+    for (let h = 1; h <= STRONG_MESH_HARMONICS; h++) out.push({ hz: h * gmf, family: `mesh:${m.id}` });
+  }
+  for (const r of model.rotors) {
+    if (!(r.blades && r.blades > 0)) continue;
+    const bp = r.blades * (ratio.get(r.shaft) ?? Number.NaN) * referenceHz;
+    for (let h = 1; h <= STRONG_BLADE_HARMONICS; h++) out.push({ hz: h * bp, family: `blades:${r.id}` });
+  }
+  return out.filter((t) => Number.isFinite(t.hz));
+}
+
+/**
+ * A band that holds strong tones of two running families: its squared envelope beats at their difference
+ * (|a1·e^{iω1t} + a2·e^{iω2t}|² = a1² + a2² + 2·a1·a2·cos((ω1 − ω2)t)), a line that is neither a mesh nor a shaft
+ * harmonic and can stand in for a bearing's rate. Discrete components are to be kept out of the demodulated band
+ * (Randall & Antoni 2011, §3: removed before the envelope, or the band chosen clear of them). Two harmonics of one
+ * mesh beat at its own mesh frequency, which the comb search already keeps clear of.
+ */
+function beatsInBand(band: { lowHz: number; highHz: number }, tones: ReadonlyArray<{ hz: number; family: string }>): boolean {
+  const families = new Set<string>();
+  for (const t of tones) if (t.hz >= band.lowHz && t.hz <= band.highHz) families.add(t.family);
+  return families.size >= 2;
+}
+
 /** Resonances below this carry the machine's own running lines, not ringing impacts: no demodulation band there. */
 const LOWEST_DEMODULATION_HZ = 500;
 /** At most this many samples are demodulated (from the start): 2^19, 5 s at 100 kHz, 40 s at 12.8 kHz. */
@@ -82,6 +119,9 @@ export function envelopeStage(
     // Narrower bands than the narrowest bearing pattern needs are of no use to any hypothesis.
     const narrowest = narrowestBearingPattern(model, speed.referenceHz) * BAND_WIDTH_FACTOR;
     bands = bandPaving(sampleRate, { minBandwidthHz: Math.max(narrowest, MIN_BANDWIDTH_HZ / speed.unitHz), topHz });
+    const tones = strongRunningTones(model, speed.referenceHz);
+    const clear = bands.filter((b) => !beatsInBand(b, tones));
+    if (clear.length > 0) bands = clear;
     if (bands.length === 0) {
       options.warnings.push('no demodulation band of the record is wide enough for this machine\'s bearings');
       return null;
