@@ -1,3 +1,4 @@
+// Sources: windowed-sinc decimation and the Blackman window's -58 dB sidelobes (Harris, Proc. IEEE 66:51-83, 1978; common practice).
 import { describe, expect, it } from 'vitest';
 import { antiAliasTaps, decimate } from './anti-alias-decimator.js';
 

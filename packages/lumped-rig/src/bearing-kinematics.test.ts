@@ -1,3 +1,4 @@
+// Sources: the published CWRU 6205 and IMS ZA-2115 defect orders (docs/check-values.md §3); the kinematic identities of Randall & Antoni, MSSP 25:485-520 (2011).
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { contactRollingSpeedsMPerS, defectFrequenciesHz } from './bearing-kinematics.js';

@@ -1,3 +1,4 @@
+// Plumbing: the corpus plan and the shape of its cases (the physics is checked in the other test files).
 import { faultKinds, validateMachineModel } from '@kinespec/kinematics';
 import type { Recording } from '@kinespec/signal';
 import { beforeAll, describe, expect, it } from 'vitest';

@@ -1,3 +1,4 @@
+// Source: closed forms of the damped SDOF (Thomson & Dahleh, Theory of Vibration with Applications, textbook, below).
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { ExactSdof } from './exact-sdof.js';

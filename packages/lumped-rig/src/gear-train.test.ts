@@ -1,3 +1,4 @@
+// Source: the gear-pair torsional mode in closed form (Kahraman & Singh, JSV 142:49-75, 1990), below.
 import { describe, expect, it } from 'vitest';
 import { assembleGearTrain } from './gear-train-assembly.js';
 import { gearTrainStepS, highestNaturalFrequencyHz, naturalFrequenciesHz, simulateGearTrain, staticState, type GearTrainSpec, type MeshContact } from './gear-train.js';

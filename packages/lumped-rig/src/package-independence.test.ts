@@ -1,3 +1,4 @@
+// Plumbing: the second physics imports no other Kinespec package.
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';

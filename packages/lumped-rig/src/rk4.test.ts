@@ -1,3 +1,4 @@
+// Sources: RK4's order (Hairer, Nørsett & Wanner, Solving ODEs I, §II.1) and the SDOF closed forms (Thomson & Dahleh), below.
 import { describe, expect, it } from 'vitest';
 import { MAX_OMEGA_STEP, Rk4, rk4StepS } from './rk4.js';
 

@@ -1,3 +1,4 @@
+// Sources: Parseval (the PSD integrates to the variance) and the 1/f slope of pink noise (common practice).
 import { describe, expect, it } from 'vitest';
 import { averagedPsd } from '../test-support/spectrum.js';
 import { createRandom } from './random.js';
