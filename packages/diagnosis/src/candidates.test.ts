@@ -38,7 +38,7 @@ describe('buildCandidates: one candidate per part the spectrum can tell apart', 
 
 describe('buildCandidates: running lines are looked for where the speed puts them', () => {
   // Hann window: main lobe ±2 bins (Harris, Proc. IEEE 66:51–83, 1978, table 1); an isolated tone's interpolated
-  // frequency lies within a tenth of a bin at 10 dB over the floor (Jain, Collins & Davis 1979; from memory).
+  // frequency scatters by about 0.18 bin at 10 dB over the floor (Rife & Boorstyn 1974 bound × 2.5, line-matching.test.ts).
   it('reads the lines of presence faults on a shaft whose harmonics lie 4 bins apart or more within half a bin', () => {
     const resolutionHz = 0.5;
     const all = candidatesAt(mixer, 'gb-input-h', 24.5, resolutionHz);

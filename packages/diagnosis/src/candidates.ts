@@ -52,10 +52,11 @@ export const BEARING_SLIP_FRACTION = 0.015;
 /**
  * Faults judged by the presence of running lines (unbalance, misalignment, looseness, wear) have no chance of the
  * pattern to weigh them (a 1× is in every spectrum), so where each line lies is their test: a running line is where
- * the measured speed puts it. The interpolated frequency of a tone in a Hann-windowed spectrum lies within a few
- * hundredths of a bin of it without noise and within about a tenth at 10 dB over the floor (Jain, Collins & Davis,
- * IEEE Trans. IM 28:113–122, 1979; the spread from memory), so half a bin, beyond the speed's uncertainty, is some
- * three standard deviations: a peak further off is another tone (noise near DC, a neighbouring machine). This holds
+ * the measured speed puts it. The interpolated frequency of a tone in a Hann-windowed spectrum scatters by about 0.18
+ * bin at 10 dB over the floor and 0.05 bin at 20 dB (simulated in line-matching.test.ts, 2.4–2.6 times the Cramér–Rao
+ * bound of Rife & Boorstyn 1974), so half a bin, beyond the speed's uncertainty, is about three standard deviations at
+ * 10 dB, and toneFrequencySigmaBins narrows it for stronger lines: a peak further off is another tone (noise near DC,
+ * a neighbouring machine). This holds
  * for a tone whose neighbours lie outside its main lobe: the shaft's harmonics must be ISOLATED_LINE_BINS apart (the
  * Hann main lobe spans ±2 bins; Harris 1978), else their lobes merge, bias the interpolation and keep the full bin
  * (a pattern of one line, unbalance's 1×, has no neighbours of its own).

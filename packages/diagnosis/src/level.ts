@@ -37,15 +37,9 @@ export interface LevelContext {
  * How big the fault is, 0..1: against the machine's own baseline where there is one, else by the descriptor's rule.
  * A baseline analysis of the point (`options.baseline`) or the point's healthy orders (`baseline.orders`) judge the
  * rise of the matched lines: +12 dB (×4) counts fully (ISO 10816-3 criterion II in spirit: change matters).
- */
-export function levelOf(candidate: Candidate, lines: readonly LevelLine[], context: LevelContext): number {
-  return judgedLevel(candidate, lines, context).level;
-}
-
-/**
- * The level and whether a baseline of the point judged it: the baseline analysis held this hypothesis, or the
- * point's healthy orders held most of its matched power. A baseline that holds other orders (the mesh fundamental
- * but not its harmonics) does not judge it, and the descriptor's rule without a baseline applies.
+ * `againstBaseline` says whether a baseline judged it: the baseline analysis held this hypothesis, or the point's
+ * healthy orders held most of its matched power. A baseline that holds other orders (the mesh fundamental but not its
+ * harmonics) does not judge it, and the descriptor's rule without a baseline applies.
  */
 export function judgedLevel(candidate: Candidate, lines: readonly LevelLine[], context: LevelContext): { level: number; againstBaseline: boolean } {
   const plain = (level: number) => ({ level, againstBaseline: false });
