@@ -5,7 +5,6 @@ import {
   convertUnit,
   downsampleForPlot,
   integrateSpectrum,
-  isMotionUnit,
   DEFAULT_NOISE_FLOOR_WIDTH_BINS,
   noiseFloor,
   quantityOfUnit,
@@ -20,9 +19,8 @@ import { bearingDefectLines, catalogueLines, runningLines } from './catalogue.js
 import { accelerationSignal } from './acceleration-signal.js';
 import { buildCandidates, type CandidateLimits } from './candidates.js';
 import { powerCepstrum, type Cepstrum } from './cepstrum.js';
-import { defaultUnit, pointOf, tachChannelOf, vibrationChannelOf } from './channel-selection.js';
+import { readChannel, type ChannelReading } from './channel-selection.js';
 import { envelopeStage, type EnvelopeStage } from './envelope-stage.js';
-import { DiagnosisInputError } from './errors.js';
 import { judgeHypotheses, predictionScale, type Judged } from './hypotheses.js';
 import { gradeSeverity, isoBandHz } from './iso-zones.js';
 import { lineToleranceHz, matchableSpectrum, strongPeaks, type MatchableSpectrum } from './line-matching.js';
@@ -83,30 +81,8 @@ export function analyseRecording(recording: Recording, options: AnalyseOptions =
   const lap = stageClock(options.stageTimesMs);
   const warnings: string[] = [];
   const model = options.model ?? null;
-  if (!recording || !Array.isArray(recording.channels) || recording.channels.length === 0) {
-    throw new DiagnosisInputError('empty_recording', 'recording must hold at least one channel');
-  }
-  const fs = recording.sampleRateHz;
-  if (!(Number.isFinite(fs) && fs > 0)) throw new DiagnosisInputError('invalid_argument', `sampleRateHz (${fs}) must be a finite number > 0`);
-
   // Stage: channel and point.
-  const tachIndex = tachChannelOf(recording, model, options);
-  const channelIndex = vibrationChannelOf(recording, options.channel, tachIndex);
-  const channel = recording.channels[channelIndex]!;
-  const point = pointOf(model, options.pointId, channel.name, warnings);
-  let unit = channel.unit;
-  if (!isMotionUnit(unit)) {
-    const fallback = point?.unit ?? (point && point.quantity !== 'tach' && point.quantity !== 'encoder' ? defaultUnit(point.quantity) : null);
-    if (!fallback) {
-      throw new DiagnosisInputError('invalid_argument', `channel ${channelIndex + 1} ('${channel.name}') has unit '${unit}', which is not a vibration unit; give the unit when uploading`);
-    }
-    warnings.push(`channel ${channelIndex + 1} ('${channel.name}') has no vibration unit ('${unit}'); read in the point's unit '${fallback}'`);
-    unit = fallback;
-  }
-  const samples = channel.samples;
-  if (samples.length < 1024) {
-    throw new DiagnosisInputError('invalid_argument', `channel ${channelIndex + 1} has ${samples.length} samples; an analysis needs at least 1024`);
-  }
+  const { sampleRateHz: fs, tachIndex, channelIndex, samples, point, unit } = readChannel(recording, model, options, warnings);
   const quantity = quantityOfUnit(unit);
 
   // Stage: time-domain indicators, on acceleration.
@@ -346,7 +322,7 @@ function envelopeResolution(model: MachineModel | null, speedHz: number | null):
 }
 
 function hypothesesStage(
-  model: MachineModel, point: NonNullable<ReturnType<typeof pointOf>>, speed: RunningSpeed, speedHz: number, unit: string,
+  model: MachineModel, point: NonNullable<ChannelReading['point']>, speed: RunningSpeed, speedHz: number, unit: string,
   quantity: 'acceleration' | 'velocity' | 'displacement', measured: MatchableSpectrum, angle: AngleSpectra | null,
   envelope: EnvelopeStage | null, iso: { abMmPerS: number; bcMmPerS: number }, options: AnalyseOptions, warnings: string[], lap: (stage: string) => void,
 ): Judged[] {

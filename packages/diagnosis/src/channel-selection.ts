@@ -68,3 +68,48 @@ export function pointOf(model: MachineModel | null, pointId: string | undefined,
   return vibration[0]!;
 }
 
+
+/** The channel an analysis reads, the point it reads it as, and the unit its samples are in. */
+export interface ChannelReading {
+  sampleRateHz: number;
+  tachIndex: number | null;
+  channelIndex: number;
+  channelName: string;
+  samples: Float64Array;
+  point: Point | null;
+  unit: string;
+}
+
+/** Fewest samples a channel must hold to be analysed. */
+export const MIN_ANALYSIS_SAMPLES = 1024;
+
+/**
+ * The first stage of every analysis (analyseRecording, computeIndicators): checks the recording, picks the vibration
+ * channel and the tach channel, the point it is read as, and its unit; a channel without a vibration unit is read in
+ * the point's unit, with a warning.
+ */
+export function readChannel(recording: Recording, model: MachineModel | null, options: ChannelChoice & { pointId?: string }, warnings: string[]): ChannelReading {
+  if (!recording || !Array.isArray(recording.channels) || recording.channels.length === 0) {
+    throw new DiagnosisInputError('empty_recording', 'recording must hold at least one channel');
+  }
+  const fs = recording.sampleRateHz;
+  if (!(Number.isFinite(fs) && fs > 0)) throw new DiagnosisInputError('invalid_argument', `sampleRateHz (${fs}) must be a finite number > 0`);
+  const tachIndex = tachChannelOf(recording, model, options);
+  const channelIndex = vibrationChannelOf(recording, options.channel, tachIndex);
+  const channel = recording.channels[channelIndex]!;
+  const point = pointOf(model, options.pointId, channel.name, warnings);
+  let unit = channel.unit;
+  if (!isMotionUnit(unit)) {
+    const fallback = point?.unit ?? (point && point.quantity !== 'tach' && point.quantity !== 'encoder' ? defaultUnit(point.quantity) : null);
+    if (!fallback) {
+      throw new DiagnosisInputError('invalid_argument', `channel ${channelIndex + 1} ('${channel.name}') has unit '${unit}', which is not a vibration unit; give the unit when uploading`);
+    }
+    warnings.push(`channel ${channelIndex + 1} ('${channel.name}') has no vibration unit ('${unit}'); read in the point's unit '${fallback}'`);
+    unit = fallback;
+  }
+  const samples = channel.samples;
+  if (samples.length < MIN_ANALYSIS_SAMPLES) {
+    throw new DiagnosisInputError('invalid_argument', `channel ${channelIndex + 1} has ${samples.length} samples; an analysis needs at least ${MIN_ANALYSIS_SAMPLES}`);
+  }
+  return { sampleRateHz: fs, tachIndex, channelIndex, channelName: channel.name, samples, point, unit };
+}

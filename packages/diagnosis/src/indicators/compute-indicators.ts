@@ -1,8 +1,8 @@
 import { pointUnit, shaftRatios, speedRangeRpm, type MachineModel } from '@kinespec/kinematics';
-import { bandRms, integrateSpectrum, isMotionUnit, quantityOfUnit, welchSpectrum, withScaling, type Recording } from '@kinespec/signal';
+import { bandRms, integrateSpectrum, quantityOfUnit, welchSpectrum, withScaling, type Recording } from '@kinespec/signal';
 import { accelerationSignal } from '../acceleration-signal.js';
 import { analyseRecording, chooseSegmentLength, velocityPsdMmPerS, type AnalyseOptions } from '../analyse-recording.js';
-import { defaultUnit, pointOf, tachChannelOf, vibrationChannelOf } from '../channel-selection.js';
+import { readChannel } from '../channel-selection.js';
 import { DiagnosisInputError } from '../errors.js';
 import { isoBandHz } from '../iso-zones.js';
 import { timeIndicators } from '../time-indicators.js';
@@ -49,29 +49,8 @@ export function computeIndicators(recording: Recording, names: readonly string[]
   }
 
   const warnings: string[] = [];
-  if (!recording || !Array.isArray(recording.channels) || recording.channels.length === 0) {
-    throw new DiagnosisInputError('empty_recording', 'recording must hold at least one channel');
-  }
-  const fs = recording.sampleRateHz;
-  if (!(Number.isFinite(fs) && fs > 0)) throw new DiagnosisInputError('invalid_argument', `sampleRateHz (${fs}) must be a finite number > 0`);
-  const tachIndex = tachChannelOf(recording, model, options);
-  const channelIndex = vibrationChannelOf(recording, options.channel, tachIndex);
-  const channel = recording.channels[channelIndex]!;
-  const point = pointOf(model, options.pointId, channel.name, warnings);
-  // The same unit rule as analyseRecording: a channel without a vibration unit is read in the point's unit.
-  let unit = channel.unit;
-  if (!isMotionUnit(unit)) {
-    const fallback = point?.unit ?? (point && point.quantity !== 'tach' && point.quantity !== 'encoder' ? defaultUnit(point.quantity) : null);
-    if (!fallback) {
-      throw new DiagnosisInputError('invalid_argument', `channel ${channelIndex} ('${channel.name}') has unit '${unit}', which is not a vibration unit; give the unit when uploading`);
-    }
-    warnings.push(`channel ${channelIndex} has unit '${unit}'; read as the point's unit '${fallback}'`);
-    unit = fallback;
-  }
-  const samples = channel.samples;
-  if (samples.length < 1024) {
-    throw new DiagnosisInputError('invalid_argument', `channel ${channelIndex} has ${samples.length} samples; an analysis needs at least 1024`);
-  }
+  // The same channel, point and unit as analyseRecording.
+  const { sampleRateHz: fs, samples, point, unit } = readChannel(recording, model, options, warnings);
   const at: IndicatorPoint = { unit: point ? pointUnit(point) : unit };
   const sources: IndicatorSources = {};
   if (descriptors.some((d) => d.stage === 'time')) {
